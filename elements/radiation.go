@@ -1,0 +1,76 @@
+package elements
+
+import "fmt"
+
+// StefanBoltzmann is the Stefan–Boltzmann constant, W/(m² K⁴) (CODATA 2018,
+// exact since the 2019 SI redefinition).
+const StefanBoltzmann = 5.670374419e-8
+
+// Radiation is gray diffuse radiative exchange between two surfaces
+// represented by nodes A and B:
+//
+//	q(A→B) = σ·S·(T_A⁴ − T_B⁴)
+//
+// where S (m²) is the exchange area that folds emissivities, areas and the
+// view factor together. The T⁴ law is stamped exactly; nothing is linearised.
+type Radiation struct {
+	A, B int
+	S    float64 // exchange area, m²
+}
+
+// RadiationToSurroundings returns the exchange between a small gray surface
+// of emissivity eps and area (m²) and large surroundings that it sees with
+// view factor f (1 when it sees nothing else): S = ε·A·F (Incropera et al.,
+// Fundamentals of Heat and Mass Transfer, eq. 1.7, small surface in a large
+// enclosure, with the view factor limiting the part of the surroundings it
+// sees).
+func RadiationToSurroundings(a, b int, eps, area, f float64) (*Radiation, error) {
+	if err := checkEmissivity(eps); err != nil {
+		return nil, err
+	}
+	if err := positive("area", area, "view factor", f); err != nil {
+		return nil, err
+	}
+	if f > 1 {
+		return nil, fmt.Errorf("view factor must be at most 1, got %g", f)
+	}
+	return &Radiation{A: a, B: b, S: eps * area * f}, nil
+}
+
+func checkEmissivity(eps float64) error {
+	if !(eps > 0 && eps <= 1) {
+		return fmt.Errorf("emissivity must be in (0, 1], got %g", eps)
+	}
+	return nil
+}
+
+// Nodes returns A and B.
+func (r *Radiation) Nodes() []int { return []int{r.A, r.B} }
+
+// Stamp adds the exchange and its exact derivatives 4σS·T³.
+func (r *Radiation) Stamp(s *State, out Stamper) {
+	ta, tb := s.T[r.A], s.T[r.B]
+	ta2, tb2 := ta*ta, tb*tb
+	q := StefanBoltzmann * r.S * (ta2*ta2 - tb2*tb2)
+	da := 4 * StefanBoltzmann * r.S * ta2 * ta
+	db := 4 * StefanBoltzmann * r.S * tb2 * tb
+	out.AddHeat(r.A, -q)
+	out.AddHeat(r.B, q)
+	out.AddDeriv(r.A, r.A, -da)
+	out.AddDeriv(r.A, r.B, db)
+	out.AddDeriv(r.B, r.A, da)
+	out.AddDeriv(r.B, r.B, -db)
+}
+
+// Report gives the exchange area and the radiative heat transfer
+// coefficient h_r = σ(T_A + T_B)(T_A² + T_B²), referred to the exchange area,
+// so that q = h_r·S·(T_A − T_B) can be checked by hand.
+func (r *Radiation) Report(s *State) Report {
+	ta, tb := s.T[r.A], s.T[r.B]
+	hr := StefanBoltzmann * (ta + tb) * (ta*ta + tb*tb)
+	return Report{Details: []Detail{
+		{Name: "exchange area", Value: r.S, Unit: "m2"},
+		{Name: "h_r", Value: hr, Unit: "W/(m2 K)"},
+		{Name: "G_equiv", Value: hr * r.S, Unit: "W/K"},
+	}}
+}
