@@ -1,0 +1,224 @@
+package network
+
+import (
+	"fmt"
+	"sort"
+	"strings"
+
+	"github.com/heatgraph/heatgraph/elements"
+)
+
+// Node is a node of the assembled network.
+type Node struct {
+	ID          string
+	Kind        NodeKind
+	Temperature float64 // K; the given temperature of a Fixed node
+	Power       float64 // heat input, W
+	Limit       float64 // K, when HasLimit
+	HasLimit    bool
+	Note        string
+	Line        int
+}
+
+// Fixed reports whether the node's temperature is given.
+func (n *Node) Fixed() bool { return n.Kind == Fixed }
+
+// Link is a link of the assembled network: one of the model's links or a
+// leg of a component's compact model.
+type Link struct {
+	ID       string
+	Kind     string // a link kind, or "junction-case"/"junction-board" for component legs
+	From, To int    // node indices
+	Note     string
+	Line     int
+	Element  elements.Element
+}
+
+// Network is a model assembled into nodes and elements, ready to solve. It
+// is not changed by solving, so one Network may be solved many times.
+type Network struct {
+	Model   *Model
+	Nodes   []Node
+	Links   []Link
+	Index   map[string]int // node id to index in Nodes
+	Env     elements.Env
+	sources []*elements.HeatInput
+	free    []int // node index -> unknown index, -1 for fixed nodes
+	unknown []int // unknown index -> node index
+	all     []elements.Element
+}
+
+// Load reads, checks and assembles a model file. Any problem in the file,
+// including a group of nodes with no path to a fixed temperature, is
+// reported in the returned Problems.
+func Load(path string) (*Network, error) {
+	m, err := ReadFile(path)
+	if err != nil {
+		return nil, err
+	}
+	return Build(m)
+}
+
+// Build assembles a checked model into a network.
+func Build(m *Model) (*Network, error) {
+	net := &Network{
+		Model: m,
+		Index: map[string]int{},
+		Env:   elements.Env{Pressure: m.Ambient.Pressure, Gravity: elements.StandardGravity},
+	}
+	var problems Problems
+	add := func(n Node) int {
+		i := len(net.Nodes)
+		net.Nodes = append(net.Nodes, n)
+		net.Index[n.ID] = i
+		if n.Power != 0 {
+			net.sources = append(net.sources, &elements.HeatInput{Node: i, Q: n.Power})
+		}
+		return i
+	}
+	add(Node{ID: AmbientID, Kind: Fixed, Temperature: m.Ambient.Temperature, Line: m.Ambient.Line, Note: "ambient air and surroundings"})
+	for _, s := range m.Nodes {
+		add(Node{ID: s.ID, Kind: s.Kind, Temperature: s.Temperature, Power: s.Power, Limit: s.Limit, HasLimit: s.HasLimit, Note: s.Note, Line: s.Line})
+	}
+	for _, c := range m.Components {
+		j := add(Node{ID: c.ID, Kind: Junction, Power: c.Power, Limit: c.Limit, HasLimit: c.HasLimit, Note: c.Note, Line: c.Line})
+		legs := []struct {
+			kind, end, suffix string
+			r                 float64
+		}{{"junction-case", c.Case, ".jc", c.RJC}, {"junction-board", c.Board, ".jb", c.RJB}}
+		for _, leg := range legs {
+			if leg.end == "" {
+				continue
+			}
+			el, err := elements.Resistance(j, net.Index[leg.end], leg.r)
+			if err != nil {
+				problems = append(problems, Problem{File: m.File, Line: c.Line, Field: "components[" + c.ID + "]", Message: err.Error()})
+				continue
+			}
+			net.Links = append(net.Links, Link{ID: c.ID + leg.suffix, Kind: leg.kind, From: j, To: net.Index[leg.end], Line: c.Line, Element: el})
+		}
+	}
+	for _, l := range m.Links {
+		a, b := net.Index[l.From], net.Index[l.To]
+		el, err := l.Params.element(a, b)
+		if err != nil {
+			problems = append(problems, Problem{File: m.File, Line: l.Line, Field: "links[" + l.ID + "]", Message: err.Error()})
+			continue
+		}
+		net.Links = append(net.Links, Link{ID: l.ID, Kind: l.Kind, From: a, To: b, Note: l.Note, Line: l.Line, Element: el})
+	}
+	problems = append(problems, m.isolated()...)
+	if len(problems) > 0 {
+		return nil, problems.sorted()
+	}
+	net.free = make([]int, len(net.Nodes))
+	for i := range net.Nodes {
+		if net.Nodes[i].Fixed() {
+			net.free[i] = -1
+			continue
+		}
+		net.free[i] = len(net.unknown)
+		net.unknown = append(net.unknown, i)
+	}
+	net.collect()
+	return net, nil
+}
+
+// isolated reports every group of nodes that no chain of links joins to a
+// node of fixed temperature: their temperatures would be undetermined.
+func (m *Model) isolated() Problems {
+	type entry struct {
+		id    string
+		line  int
+		fixed bool
+	}
+	nodes := []entry{{id: AmbientID, line: m.Ambient.Line, fixed: true}}
+	for _, n := range m.Nodes {
+		nodes = append(nodes, entry{n.ID, n.Line, n.Kind == Fixed})
+	}
+	for _, c := range m.Components {
+		nodes = append(nodes, entry{c.ID, c.Line, false})
+	}
+	index := make(map[string]int, len(nodes))
+	parent := make([]int, len(nodes))
+	for i, n := range nodes {
+		index[n.id] = i
+		parent[i] = i
+	}
+	find := func(i int) int {
+		for parent[i] != i {
+			parent[i] = parent[parent[i]]
+			i = parent[i]
+		}
+		return i
+	}
+	join := func(a, b string) {
+		ia, okA := index[a]
+		ib, okB := index[b]
+		if okA && okB {
+			parent[find(ia)] = find(ib)
+		}
+	}
+	for _, c := range m.Components {
+		if c.Case != "" {
+			join(c.ID, c.Case)
+		}
+		if c.Board != "" {
+			join(c.ID, c.Board)
+		}
+	}
+	for _, l := range m.Links {
+		join(l.From, l.To)
+	}
+	anchored := map[int]bool{}
+	for i, n := range nodes {
+		if n.fixed {
+			anchored[find(i)] = true
+		}
+	}
+	groups := map[int][]int{}
+	var roots []int
+	for i := range nodes {
+		r := find(i)
+		if anchored[r] {
+			continue
+		}
+		if groups[r] == nil {
+			roots = append(roots, r)
+		}
+		groups[r] = append(groups[r], i)
+	}
+	var out Problems
+	for _, r := range roots {
+		g := groups[r]
+		sort.SliceStable(g, func(a, b int) bool { return nodes[g[a]].line < nodes[g[b]].line })
+		ids := make([]string, len(g))
+		for k, i := range g {
+			ids[k] = nodes[i].id
+		}
+		what := fmt.Sprintf("node %q has", ids[0])
+		if len(ids) > 1 {
+			what = fmt.Sprintf("nodes %s have", quoteList(ids))
+		}
+		out = append(out, Problem{File: m.File, Line: nodes[g[0]].line, Field: "nodes",
+			Message: what + " no path to any fixed temperature, so the temperature is undetermined (link them to ambient or to a kind: fixed node, e.g. with a convection link)"})
+	}
+	return out
+}
+
+func quoteList(ids []string) string {
+	q := make([]string, len(ids))
+	for i, id := range ids {
+		q[i] = fmt.Sprintf("%q", id)
+	}
+	if len(q) > 12 {
+		q = append(q[:12], fmt.Sprintf("and %d more", len(ids)-12))
+	}
+	return strings.Join(q, ", ")
+}
+
+// Unknowns returns the number of nodes whose temperature the solve finds.
+func (net *Network) Unknowns() int { return len(net.unknown) }
+
+// Sources returns the heat inputs of the network.
+func (net *Network) Sources() []*elements.HeatInput { return net.sources }

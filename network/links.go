@@ -1,0 +1,243 @@
+package network
+
+import (
+	"strings"
+
+	"github.com/heatgraph/heatgraph/elements"
+	"github.com/heatgraph/heatgraph/network/units"
+)
+
+// LinkParams holds the kind-specific values of a link, in SI units.
+type LinkParams interface {
+	// element builds the link between node indices a and b.
+	element(a, b int) (elements.Element, error)
+}
+
+// linkKind describes one kind of link in the model file.
+type linkKind struct {
+	name      string
+	summary   string
+	keys      []string // keys besides id, kind, from, to, note
+	defaultTo string   // node used when "to" is omitted; "" makes it required
+	parse     func(o *object, m *Model) LinkParams
+}
+
+// commonLinkKeys are accepted by every kind.
+var commonLinkKeys = []string{"id", "kind", "from", "to", "note"}
+
+var linkKinds = []linkKind{
+	{
+		name:    "conduction",
+		summary: "conduction through a slab or bar: k·A/L",
+		keys:    []string{"material", "conductivity", "area", "thickness", "length"},
+		parse:   parseConduction,
+	},
+	{
+		name:    "contact",
+		summary: "interface resistance: area-specific resistance over an area, or a total",
+		keys:    []string{"specific_resistance", "area", "resistance"},
+		parse:   parseContact,
+	},
+	{
+		name:    "lumped",
+		summary: "a resistance (K/W) or conductance (W/K) given directly",
+		keys:    []string{"resistance", "conductance"},
+		parse:   parseLumped,
+	},
+	{
+		name:      "convection",
+		summary:   "convection with a given heat transfer coefficient: h·A",
+		keys:      []string{"coefficient", "area"},
+		defaultTo: AmbientID,
+		parse:     parseConvection,
+	},
+	{
+		name:      "radiation",
+		summary:   "gray radiation from a surface to large surroundings: ε·σ·A·F·(T⁴ − T∞⁴)",
+		keys:      []string{"emissivity", "area", "view_factor"},
+		defaultTo: AmbientID,
+		parse:     parseRadiation,
+	},
+}
+
+// KindInfo describes a link kind for help texts.
+type KindInfo struct {
+	Name    string
+	Keys    string // the kind's own keys, comma-separated
+	Summary string
+}
+
+// LinkKindInfo describes every link kind, in the order the documentation
+// presents them.
+func LinkKindInfo() []KindInfo {
+	out := make([]KindInfo, len(linkKinds))
+	for i, k := range linkKinds {
+		out[i] = KindInfo{Name: k.name, Keys: strings.Join(k.keys, ", "), Summary: k.summary}
+	}
+	return out
+}
+
+func findLinkKind(name string) *linkKind {
+	for i := range linkKinds {
+		if linkKinds[i].name == name {
+			return &linkKinds[i]
+		}
+	}
+	return nil
+}
+
+func linkKindNames() []string {
+	out := make([]string, len(linkKinds))
+	for i, k := range linkKinds {
+		out[i] = k.name
+	}
+	return out
+}
+
+// Conduction is a slab or bar of one material.
+type Conduction struct {
+	Material     string  // material name, "" when the conductivity was given
+	Conductivity float64 // W/(m K)
+	Area         float64 // cross-section normal to the heat flow, m²
+	Length       float64 // thickness or length along the heat flow, m
+}
+
+func (c *Conduction) element(a, b int) (elements.Element, error) {
+	return elements.Slab(a, b, c.Conductivity, c.Area, c.Length)
+}
+
+func parseConduction(o *object, m *Model) LinkParams {
+	c := &Conduction{}
+	ok := true
+	switch o.oneOf("a material name from the table or a conductivity such as 0.3 W/m/K", "material", "conductivity") {
+	case "material":
+		name, _ := o.str("material")
+		mat, found := m.Materials[name]
+		if !found {
+			o.r.addf(o.values["material"], o.field("material"), "unknown material %q%s (see 'heatgraph materials' for the table, or add it under materials:)", name, suggest(name, sortedKeys(m.Materials)))
+			ok = false
+		}
+		c.Material, c.Conductivity = name, mat.Conductivity
+	case "conductivity":
+		c.Conductivity, ok = o.positive("conductivity", units.Conductivity, true)
+	default:
+		ok = false
+	}
+	var okA, okL bool
+	c.Area, okA = o.positive("area", units.Area, true)
+	switch o.oneOf("the slab thickness or bar length along the heat flow, e.g. 1.6 mm", "thickness", "length") {
+	case "thickness":
+		c.Length, okL = o.positive("thickness", units.Length, true)
+	case "length":
+		c.Length, okL = o.positive("length", units.Length, true)
+	}
+	if !ok || !okA || !okL {
+		return nil
+	}
+	return c
+}
+
+// Contact is an interface resistance.
+type Contact struct {
+	Specific   float64 // area-specific resistance, K m²/W (with Area)
+	Area       float64 // m²
+	Resistance float64 // total, K/W (when Specific is zero)
+}
+
+func (c *Contact) element(a, b int) (elements.Element, error) {
+	if c.Specific > 0 {
+		return elements.Contact(a, b, c.Specific, c.Area)
+	}
+	return elements.Resistance(a, b, c.Resistance)
+}
+
+func parseContact(o *object, _ *Model) LinkParams {
+	c := &Contact{}
+	switch o.oneOf("an area-specific resistance with an area, e.g. specific_resistance: 0.5 K*cm2/W, or a total resistance in K/W", "specific_resistance", "resistance") {
+	case "specific_resistance":
+		s, ok1 := o.positive("specific_resistance", units.SpecificResistance, true)
+		a, ok2 := o.positive("area", units.Area, true)
+		if ok1 && ok2 {
+			c.Specific, c.Area = s, a
+			return c
+		}
+	case "resistance":
+		if o.has("area") {
+			o.r.addf(o.values["area"], o.field("area"), "not used with a total resistance (give specific_resistance with area, or resistance alone)")
+			return nil
+		}
+		if r, ok := o.positive("resistance", units.ThermalResistance, true); ok {
+			c.Resistance = r
+			return c
+		}
+	}
+	return nil
+}
+
+// Lumped is a resistance or conductance given directly.
+type Lumped struct {
+	Conductance float64 // W/K
+}
+
+func (l *Lumped) element(a, b int) (elements.Element, error) {
+	return &elements.Conductance{A: a, B: b, G: l.Conductance}, nil
+}
+
+func parseLumped(o *object, _ *Model) LinkParams {
+	switch o.oneOf("a resistance such as 0.8 K/W or a conductance such as 2 W/K", "resistance", "conductance") {
+	case "resistance":
+		if r, ok := o.positive("resistance", units.ThermalResistance, true); ok {
+			return &Lumped{Conductance: 1 / r}
+		}
+	case "conductance":
+		if g, ok := o.positive("conductance", units.Conductance, true); ok {
+			return &Lumped{Conductance: g}
+		}
+	}
+	return nil
+}
+
+// Convection is convection with a coefficient the user gives.
+type Convection struct {
+	Coefficient float64 // W/(m² K)
+	Area        float64 // m²
+}
+
+func (c *Convection) element(a, b int) (elements.Element, error) {
+	return elements.FixedConvection(a, b, c.Coefficient, c.Area)
+}
+
+func parseConvection(o *object, _ *Model) LinkParams {
+	h, ok1 := o.positive("coefficient", units.HeatTransferCoefficient, true)
+	a, ok2 := o.positive("area", units.Area, true)
+	if !ok1 || !ok2 {
+		return nil
+	}
+	return &Convection{Coefficient: h, Area: a}
+}
+
+// Radiation is gray radiation from a surface to large surroundings.
+type Radiation struct {
+	Emissivity float64
+	Area       float64 // m²
+	ViewFactor float64 // fraction of the surroundings' view, default 1
+}
+
+func (r *Radiation) element(a, b int) (elements.Element, error) {
+	return elements.RadiationToSurroundings(a, b, r.Emissivity, r.Area, r.ViewFactor)
+}
+
+func parseRadiation(o *object, _ *Model) LinkParams {
+	r := &Radiation{ViewFactor: 1}
+	eps, ok1 := o.fraction("emissivity", true)
+	a, ok2 := o.positive("area", units.Area, true)
+	ok3 := true
+	if o.has("view_factor") {
+		r.ViewFactor, ok3 = o.fraction("view_factor", true)
+	}
+	if !ok1 || !ok2 || !ok3 {
+		return nil
+	}
+	r.Emissivity, r.Area = eps, a
+	return r
+}

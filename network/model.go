@@ -1,0 +1,80 @@
+package network
+
+// Model is a model file as read: every quantity in SI units, every name
+// checked, nothing assembled yet. Build turns it into a Network.
+type Model struct {
+	File           string     // path the model was read from
+	Title          string     // one line naming the design
+	Ambient        Ambient    // surrounding air
+	RequiredMargin float64    // K that every limit must keep; closer is flagged
+	Materials      Materials  // built-in table with the file's own entries on top
+	Nodes          []NodeSpec // in file order
+	Components     []ComponentSpec
+	Links          []LinkSpec
+}
+
+// Ambient describes the air around the box.
+type Ambient struct {
+	Temperature float64 // K
+	Pressure    float64 // absolute, Pa
+	Altitude    float64 // m above sea level, when given (else 0)
+	FromAlt     bool    // the pressure was derived from Altitude
+	Line        int
+}
+
+// AmbientID is the name of the node that stands for the ambient; every model
+// has it, held at the ambient temperature.
+const AmbientID = "ambient"
+
+// NodeKind tells what decides a node's temperature.
+type NodeKind string
+
+// Node kinds.
+const (
+	// Solid: a body whose temperature the solve finds.
+	Solid NodeKind = "solid"
+	// Fixed: a boundary held at a given temperature (ambient, a cold
+	// plate, a chassis held by a larger system).
+	Fixed NodeKind = "fixed"
+	// Junction: the junction node of a component's compact model.
+	Junction NodeKind = "junction"
+)
+
+// NodeSpec is one entry of the nodes list.
+type NodeSpec struct {
+	ID          string
+	Kind        NodeKind // Solid or Fixed
+	Power       float64  // heat input, W (Solid only)
+	Temperature float64  // K (Fixed only)
+	Limit       float64  // highest allowed temperature, K (when HasLimit)
+	HasLimit    bool
+	Note        string
+	Line        int
+}
+
+// ComponentSpec is a part described by the JEDEC two-resistor compact model
+// (JESD15-3): a junction node joined to the case top through R_jc and to the
+// board through R_jb.
+type ComponentSpec struct {
+	ID       string
+	Power    float64 // dissipated at the junction, W
+	RJC      float64 // junction to case, K/W (when Case is set)
+	RJB      float64 // junction to board, K/W (when Board is set)
+	Case     string  // node at the case top; "" for an adiabatic top
+	Board    string  // board node under the part; "" for none
+	Limit    float64 // highest allowed junction temperature, K (when HasLimit)
+	HasLimit bool
+	Note     string
+	Line     int
+}
+
+// LinkSpec is one entry of the links list.
+type LinkSpec struct {
+	ID     string
+	Kind   string // one of LinkKinds
+	From   string
+	To     string
+	Note   string
+	Line   int
+	Params LinkParams // nil when the entry had errors
+}

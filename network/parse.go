@@ -1,0 +1,379 @@
+package network
+
+import (
+	"bytes"
+	"fmt"
+	"os"
+	"regexp"
+	"strconv"
+	"strings"
+
+	"github.com/heatgraph/heatgraph/elements/air"
+	"github.com/heatgraph/heatgraph/network/units"
+	"gopkg.in/yaml.v3"
+)
+
+// FormatVersion is the model format version this build reads.
+const FormatVersion = 1
+
+var topKeys = []string{"heatgraph", "title", "ambient", "required_margin", "materials", "nodes", "components", "links"}
+
+// ReadFile reads and checks a model file. On invalid input the error is a
+// Problems list naming every problem found, each with its line.
+func ReadFile(path string) (*Model, error) {
+	data, err := os.ReadFile(path)
+	if err != nil {
+		return nil, Problems{{File: path, Message: readError(err)}}
+	}
+	return Parse(path, data)
+}
+
+func readError(err error) string {
+	switch {
+	case os.IsNotExist(err):
+		return "no such file"
+	case os.IsPermission(err):
+		return "permission denied"
+	}
+	var pe *os.PathError
+	if ok := asPathError(err, &pe); ok {
+		return pe.Err.Error()
+	}
+	return err.Error()
+}
+
+func asPathError(err error, target **os.PathError) bool {
+	pe, ok := err.(*os.PathError)
+	if ok {
+		*target = pe
+	}
+	return ok
+}
+
+// Parse reads a model from data; file names it in messages.
+func Parse(file string, data []byte) (*Model, error) {
+	r := &reader{file: file}
+	m := &Model{File: file, Materials: BuiltinMaterials()}
+	if len(bytes.TrimSpace(data)) == 0 {
+		r.addf(nil, "", "the model is empty (it needs at least ambient: and nodes:, see the examples folder)")
+		return nil, r.problems
+	}
+	var doc yaml.Node
+	if err := yaml.Unmarshal(data, &doc); err != nil {
+		line, msg := yamlError(err)
+		r.problems = append(r.problems, Problem{File: file, Line: line, Field: "syntax", Message: msg})
+		return nil, r.problems
+	}
+	if len(doc.Content) == 0 {
+		r.addf(nil, "", "the model is empty (it needs at least ambient: and nodes:, see the examples folder)")
+		return nil, r.problems
+	}
+	top := r.newObject(doc.Content[0], "")
+	if top == nil {
+		return nil, r.problems
+	}
+	top.checkKeys(topKeys, "the top level")
+	if v, ok := top.str("heatgraph"); ok && v != strconv.Itoa(FormatVersion) {
+		r.addf(top.values["heatgraph"], "heatgraph", "format version %q is not supported (this build reads version %d)", v, FormatVersion)
+	}
+	m.Title, _ = top.str("title")
+	r.readAmbient(top, m)
+	if top.has("required_margin") {
+		if x, ok := top.quantity("required_margin", units.TemperatureDifference); ok {
+			if x < 0 {
+				r.addf(top.values["required_margin"], "required_margin", "must not be negative (a temperature difference such as 5 K)")
+			}
+			m.RequiredMargin = x
+		}
+	}
+	if n, ok := top.values["materials"]; ok {
+		r.readMaterials(n, m.Materials)
+	}
+	ids := map[string]int{AmbientID: 0}
+	before := len(r.problems)
+	if n, ok := top.values["nodes"]; ok {
+		m.Nodes = r.readNodes(n, ids)
+	}
+	if n, ok := top.values["components"]; ok {
+		m.Components = r.readComponents(n, ids)
+	}
+	if len(m.Nodes) == 0 && len(m.Components) == 0 && len(r.problems) == before {
+		r.addf(top.node, "nodes", "the model has no nodes (add a nodes: list with at least one solid node)")
+	}
+	r.resolveComponents(top, m, ids)
+	if n, ok := top.values["links"]; ok {
+		m.Links = r.readLinks(n, m, ids)
+	}
+	if !r.broken {
+		r.problems = append(r.problems, m.isolated()...)
+	}
+	if len(r.problems) > 0 {
+		return nil, r.problems.sorted()
+	}
+	return m, nil
+}
+
+var yamlLine = regexp.MustCompile(`^yaml: line (\d+): (.*)$`)
+
+// yamlError turns a yaml.v3 error into a line and a message.
+func yamlError(err error) (int, string) {
+	msg := err.Error()
+	if te, ok := err.(*yaml.TypeError); ok && len(te.Errors) > 0 {
+		msg = te.Errors[0]
+	}
+	msg = strings.TrimPrefix(msg, "yaml: unmarshal errors:\n  ")
+	if m := yamlLine.FindStringSubmatch(msg); m != nil {
+		line, _ := strconv.Atoi(m[1])
+		return line, m[2] + " (check the indentation and that every key is followed by a colon and a space)"
+	}
+	return 0, strings.TrimPrefix(msg, "yaml: ")
+}
+
+var ambientKeys = []string{"temperature", "pressure", "altitude"}
+
+func (r *reader) readAmbient(top *object, m *Model) {
+	n, ok := top.values["ambient"]
+	if !ok {
+		top.missing("ambient", "a mapping with temperature and optionally pressure or altitude, e.g. ambient: {temperature: 25 degC}")
+		return
+	}
+	o := r.newObject(n, "ambient")
+	if o == nil {
+		return
+	}
+	o.checkKeys(ambientKeys, "ambient")
+	m.Ambient.Line = n.Line
+	if t, ok := o.required("temperature", units.Temperature); ok {
+		m.Ambient.Temperature = t
+	}
+	m.Ambient.Pressure = air.SeaLevelP
+	if o.has("pressure") && o.has("altitude") {
+		r.addf(o.values["altitude"], "ambient.altitude", "give pressure or altitude, not both")
+		return
+	}
+	if p, ok := o.positive("pressure", units.Pressure, false); ok {
+		m.Ambient.Pressure = p
+	}
+	if z, ok := o.quantity("altitude", units.Length); ok {
+		_, p, _, err := air.StandardAtmosphere(z)
+		if err != nil {
+			r.addf(o.values["altitude"], "ambient.altitude", "%v", err)
+			return
+		}
+		m.Ambient.Pressure, m.Ambient.Altitude, m.Ambient.FromAlt = p, z, true
+	}
+}
+
+var (
+	solidKeys = []string{"id", "kind", "power", "limit", "note"}
+	fixedKeys = []string{"id", "kind", "temperature", "note"}
+	nodeKinds = []string{string(Solid), string(Fixed)}
+)
+
+// claim records a new node id, reporting duplicates and the reserved name.
+func (r *reader) claim(o *object, id string, ids map[string]int) bool {
+	if id == AmbientID {
+		r.addf(o.values["id"], o.field("id"), "%q is reserved for the ambient node, which every model has; use it in links without defining it", id)
+		return false
+	}
+	if line, dup := ids[id]; dup {
+		r.addf(o.values["id"], o.field("id"), "%q is already used by the node or component on line %d; ids must be unique", id, line)
+		return false
+	}
+	ids[id] = o.line("id")
+	return true
+}
+
+func (r *reader) readNodes(n *yaml.Node, ids map[string]int) []NodeSpec {
+	var out []NodeSpec
+	for i, item := range r.list(n, "nodes", "entries with id and kind") {
+		o := r.newObject(item, "nodes["+itoa(i)+"]")
+		if o == nil {
+			continue
+		}
+		spec := NodeSpec{Kind: Solid, Line: item.Line}
+		id, okID := o.id("id")
+		if okID {
+			o.path = "nodes[" + id + "]"
+			okID = r.claim(o, id, ids)
+		}
+		spec.ID = id
+		if k, ok := o.str("kind"); ok {
+			switch NodeKind(k) {
+			case Solid, Fixed:
+				spec.Kind = NodeKind(k)
+			default:
+				r.addf(o.values["kind"], o.field("kind"), "unknown node kind %q%s (valid: %s)", k, suggest(k, nodeKinds), strings.Join(nodeKinds, ", "))
+				r.broken = true
+				continue
+			}
+		}
+		spec.Note, _ = o.str("note")
+		switch spec.Kind {
+		case Solid:
+			o.checkKeys(solidKeys, "a solid node")
+			spec.Power, _ = o.quantity("power", units.Power)
+			spec.Limit, spec.HasLimit = o.quantity("limit", units.Temperature)
+		case Fixed:
+			if o.has("power") {
+				r.addf(o.values["power"], o.field("power"), "a fixed-temperature node cannot take a heat input (its temperature is given); put the heat on a solid node linked to it")
+			}
+			if o.has("limit") {
+				r.addf(o.values["limit"], o.field("limit"), "a fixed-temperature node has no limit to check (its temperature is given)")
+			}
+			o.checkKeys(append(fixedKeys, "power", "limit"), "a fixed node")
+			spec.Temperature, _ = o.required("temperature", units.Temperature)
+		}
+		if okID {
+			out = append(out, spec)
+		}
+	}
+	return out
+}
+
+var componentKeys = []string{"id", "power", "r_jc", "r_jb", "case", "board", "limit", "note"}
+
+func (r *reader) readComponents(n *yaml.Node, ids map[string]int) []ComponentSpec {
+	var out []ComponentSpec
+	for i, item := range r.list(n, "components", "entries with id, power, r_jc/r_jb and the case and board nodes") {
+		o := r.newObject(item, "components["+itoa(i)+"]")
+		if o == nil {
+			continue
+		}
+		o.checkKeys(componentKeys, "a component")
+		c := ComponentSpec{Line: item.Line}
+		id, okID := o.id("id")
+		if okID {
+			o.path = "components[" + id + "]"
+			okID = r.claim(o, id, ids)
+		}
+		c.ID = id
+		c.Note, _ = o.str("note")
+		c.Power, _ = o.required("power", units.Power)
+		c.Limit, c.HasLimit = o.quantity("limit", units.Temperature)
+		c.Case, _ = o.str("case")
+		c.Board, _ = o.str("board")
+		if c.Case != "" {
+			c.RJC, _ = o.positive("r_jc", units.ThermalResistance, true)
+		} else if o.has("r_jc") {
+			r.addf(o.values["r_jc"], o.field("r_jc"), "r_jc needs the case node it leads to (add case: <node id>)")
+		}
+		if c.Board != "" {
+			c.RJB, _ = o.positive("r_jb", units.ThermalResistance, true)
+		} else if o.has("r_jb") {
+			r.addf(o.values["r_jb"], o.field("r_jb"), "r_jb needs the board node it leads to (add board: <node id>)")
+		}
+		if c.Case == "" && c.Board == "" && !o.has("r_jc") && !o.has("r_jb") {
+			r.addf(o.node, o.path, "needs case: with r_jc, board: with r_jb, or both (the JEDEC two-resistor model)")
+		}
+		if okID {
+			out = append(out, c)
+		}
+	}
+	return out
+}
+
+// resolveComponents checks that components name existing nodes.
+func (r *reader) resolveComponents(top *object, m *Model, ids map[string]int) {
+	names := sortedKeys(ids)
+	for _, c := range m.Components {
+		for _, end := range []struct{ key, id string }{{"case", c.Case}, {"board", c.Board}} {
+			if end.id == "" {
+				continue
+			}
+			if _, ok := ids[end.id]; !ok {
+				r.broken = true
+				r.problems = append(r.problems, Problem{File: r.file, Line: c.Line, Field: "components[" + c.ID + "]." + end.key,
+					Message: fmt.Sprintf("unknown node %q%s", end.id, suggest(end.id, names))})
+			} else if end.id == c.ID {
+				r.problems = append(r.problems, Problem{File: r.file, Line: c.Line, Field: "components[" + c.ID + "]." + end.key,
+					Message: "a component cannot be its own case or board node"})
+			}
+		}
+	}
+}
+
+func (r *reader) readLinks(n *yaml.Node, m *Model, ids map[string]int) []LinkSpec {
+	var out []LinkSpec
+	names := sortedKeys(ids)
+	linkIDs := map[string]int{}
+	for i, item := range r.list(n, "links", "entries with kind, from, to and the kind's values") {
+		o := r.newObject(item, "links["+itoa(i)+"]")
+		if o == nil {
+			continue
+		}
+		l := LinkSpec{Line: item.Line}
+		explicitID := o.has("id")
+		if explicitID {
+			id, ok := o.id("id")
+			if !ok {
+				r.broken = true
+				continue
+			}
+			l.ID = id
+			o.path = "links[" + id + "]"
+		}
+		kindName, ok := o.str("kind")
+		if !ok {
+			r.broken = true
+			if !o.has("kind") {
+				o.missing("kind", "one of "+strings.Join(linkKindNames(), ", "))
+			}
+			continue
+		}
+		kind := findLinkKind(kindName)
+		if kind == nil {
+			r.broken = true
+			r.addf(o.values["kind"], o.field("kind"), "unknown link kind %q%s (valid: %s)", kindName, suggest(kindName, linkKindNames()), strings.Join(linkKindNames(), ", "))
+			continue
+		}
+		l.Kind = kindName
+		o.checkKeys(append(append([]string{}, commonLinkKeys...), kind.keys...), "a "+kindName+" link")
+		l.Note, _ = o.str("note")
+		l.From = r.endpoint(o, "from", "", ids, names)
+		l.To = r.endpoint(o, "to", kind.defaultTo, ids, names)
+		if l.From != "" && l.From == l.To {
+			r.addf(o.values["to"], o.field("to"), "a link must join two different nodes (from and to are both %q)", l.From)
+		}
+		l.Params = kind.parse(o, m)
+		if !explicitID && l.From != "" && l.To != "" {
+			l.ID = l.From + "--" + l.To
+			for k := 2; linkIDs[l.ID] != 0; k++ {
+				l.ID = fmt.Sprintf("%s--%s#%d", l.From, l.To, k)
+			}
+		}
+		if l.ID != "" {
+			if line, dup := linkIDs[l.ID]; dup && explicitID {
+				r.addf(o.values["id"], o.field("id"), "link id %q is already used on line %d; ids must be unique", l.ID, line)
+				continue
+			}
+			linkIDs[l.ID] = item.Line
+		}
+		out = append(out, l)
+	}
+	return out
+}
+
+// endpoint reads a link end and checks that it names a node.
+func (r *reader) endpoint(o *object, key, def string, ids map[string]int, names []string) string {
+	id, ok := o.str(key)
+	if !ok {
+		if o.has(key) {
+			return ""
+		}
+		if def != "" {
+			return def
+		}
+		o.missing(key, "the id of a node or component")
+		r.broken = true
+		return ""
+	}
+	if _, known := ids[id]; !known {
+		r.addf(o.values[key], o.field(key), "unknown node %q%s", id, suggest(id, names))
+		r.broken = true
+		return ""
+	}
+	return id
+}
+
+func itoa(i int) string { return strconv.Itoa(i) }

@@ -1,0 +1,327 @@
+package network
+
+import (
+	"errors"
+	"fmt"
+	"regexp"
+	"sort"
+	"strings"
+
+	"github.com/heatgraph/heatgraph/network/units"
+	"gopkg.in/yaml.v3"
+)
+
+// reader collects the problems found while reading one model file.
+type reader struct {
+	file     string
+	problems Problems
+	// broken is set when a problem changes which nodes are joined (an
+	// unknown node kind, link kind or link end); the check for nodes with
+	// no path to a fixed temperature is then skipped, as it would only
+	// echo the first problem.
+	broken bool
+}
+
+// addf records a problem at the line of n (0 when n is nil).
+func (r *reader) addf(n *yaml.Node, field, format string, args ...any) {
+	line := 0
+	if n != nil {
+		line = n.Line
+	}
+	r.problems = append(r.problems, Problem{File: r.file, Line: line, Field: field, Message: fmt.Sprintf(format, args...)})
+}
+
+// object reads one YAML mapping: it hands out values by key, checks their
+// types and units, and at the end reports keys nobody asked for.
+type object struct {
+	r      *reader
+	node   *yaml.Node
+	path   string
+	values map[string]*yaml.Node
+	keys   map[string]*yaml.Node
+	order  []string
+	// misspelt holds the keys that an unknown key was taken to be a
+	// misspelling of; their absence is not reported again.
+	misspelt map[string]bool
+}
+
+// newObject checks that n is a mapping and indexes its keys; duplicate keys
+// are reported. It returns nil (after reporting) when n is not a mapping.
+func (r *reader) newObject(n *yaml.Node, path string) *object {
+	if n.Kind != yaml.MappingNode {
+		r.addf(n, path, "expected a mapping of keys to values, got %s", describe(n))
+		return nil
+	}
+	o := &object{r: r, node: n, path: path, values: map[string]*yaml.Node{}, keys: map[string]*yaml.Node{}}
+	for i := 0; i+1 < len(n.Content); i += 2 {
+		k, v := n.Content[i], n.Content[i+1]
+		if k.Kind != yaml.ScalarNode {
+			r.addf(k, path, "keys must be plain words, got %s", describe(k))
+			continue
+		}
+		if first, dup := o.keys[k.Value]; dup {
+			r.addf(k, o.field(k.Value), "given twice (first on line %d); keep one", first.Line)
+			continue
+		}
+		o.keys[k.Value] = k
+		o.values[k.Value] = v
+		o.order = append(o.order, k.Value)
+	}
+	return o
+}
+
+// field returns the path of one key of o.
+func (o *object) field(key string) string {
+	if o.path == "" {
+		return key
+	}
+	return o.path + "." + key
+}
+
+// has reports whether key is present.
+func (o *object) has(key string) bool { _, ok := o.values[key]; return ok }
+
+// line returns the line of key's value, or of the object when key is absent.
+func (o *object) line(key string) int {
+	if v, ok := o.values[key]; ok {
+		return v.Line
+	}
+	return o.node.Line
+}
+
+// checkKeys reports every key not in allowed, suggesting the closest
+// allowed key.
+func (o *object) checkKeys(allowed []string, what string) {
+	ok := make(map[string]bool, len(allowed))
+	for _, k := range allowed {
+		ok[k] = true
+	}
+	for _, k := range o.order {
+		if ok[k] {
+			continue
+		}
+		best := closest(k, allowed)
+		hint := ""
+		if best != "" {
+			hint = fmt.Sprintf(" (did you mean %q?)", best)
+			if o.misspelt == nil {
+				o.misspelt = map[string]bool{}
+			}
+			o.misspelt[best] = true
+		}
+		o.r.addf(o.keys[k], o.field(k), "unknown key%s (%s takes: %s)", hint, what, strings.Join(allowed, ", "))
+	}
+}
+
+// missing reports a required key that is absent, unless a misspelling of it
+// was reported already.
+func (o *object) missing(key, hint string) {
+	if o.misspelt[key] {
+		return
+	}
+	o.r.addf(o.node, o.field(key), "missing (%s)", hint)
+}
+
+// str returns a scalar string value, or ok false (after reporting when the
+// value is there but not a scalar).
+func (o *object) str(key string) (string, bool) {
+	v, ok := o.values[key]
+	if !ok {
+		return "", false
+	}
+	if v.Kind != yaml.ScalarNode || v.Tag == "!!null" {
+		o.r.addf(v, o.field(key), "expected a single value, got %s", describe(v))
+		return "", false
+	}
+	return v.Value, true
+}
+
+var idPattern = regexp.MustCompile(`^[A-Za-z0-9][A-Za-z0-9_.\-]*$`)
+
+// id returns a required identifier.
+func (o *object) id(key string) (string, bool) {
+	s, ok := o.str(key)
+	if !ok {
+		if !o.has(key) {
+			o.missing(key, "a name made of letters, digits, '_', '-' and '.', e.g. cpu-lid")
+		}
+		return "", false
+	}
+	if !idPattern.MatchString(s) {
+		o.r.addf(o.values[key], o.field(key), "%q is not a valid name (use letters, digits, '_', '-' and '.', starting with a letter or digit)", s)
+		return "", false
+	}
+	return s, true
+}
+
+// quantity returns the SI value of key, read as kind. ok is false when the
+// key is absent or its value is invalid (which is reported).
+func (o *object) quantity(key string, kind units.Kind) (float64, bool) {
+	v, ok := o.values[key]
+	if !ok {
+		return 0, false
+	}
+	if v.Kind != yaml.ScalarNode || v.Tag == "!!null" {
+		o.r.addf(v, o.field(key), "expected %s such as %q, got %s", withArticle(kind.String()), example(kind), describe(v))
+		return 0, false
+	}
+	x, err := units.Parse(v.Value, kind)
+	if err != nil {
+		var ue *units.Error
+		if errors.As(err, &ue) {
+			o.r.addf(v, o.field(key), "%s", ue.Error())
+		} else {
+			o.r.addf(v, o.field(key), "%v", err)
+		}
+		return 0, false
+	}
+	return x, true
+}
+
+// required is quantity for a key that must be present.
+func (o *object) required(key string, kind units.Kind) (float64, bool) {
+	if !o.has(key) {
+		o.missing(key, fmt.Sprintf("%s, e.g. %s", withArticle(kind.String()), example(kind)))
+		return 0, false
+	}
+	return o.quantity(key, kind)
+}
+
+// positive reads a quantity that must be above zero.
+func (o *object) positive(key string, kind units.Kind, need bool) (float64, bool) {
+	var x float64
+	var ok bool
+	if need {
+		x, ok = o.required(key, kind)
+	} else {
+		x, ok = o.quantity(key, kind)
+	}
+	if ok && !(x > 0) {
+		o.r.addf(o.values[key], o.field(key), "%q must be greater than zero (%s, e.g. %s)", o.values[key].Value, withArticle(kind.String()), example(kind))
+		return 0, false
+	}
+	return x, ok
+}
+
+// fraction reads a number in (0, 1].
+func (o *object) fraction(key string, need bool) (float64, bool) {
+	var x float64
+	var ok bool
+	if need {
+		x, ok = o.required(key, units.Dimensionless)
+	} else {
+		x, ok = o.quantity(key, units.Dimensionless)
+	}
+	if ok && !(x > 0 && x <= 1) {
+		o.r.addf(o.values[key], o.field(key), "%q is outside (0, 1] (a fraction such as 0.85 or 85 %%)", o.values[key].Value)
+		return 0, false
+	}
+	return x, ok
+}
+
+// oneOf checks that exactly one of keys is present and returns it ("" after
+// reporting otherwise).
+func (o *object) oneOf(hint string, keys ...string) string {
+	var present []string
+	for _, k := range keys {
+		if o.has(k) {
+			present = append(present, k)
+		}
+	}
+	switch len(present) {
+	case 1:
+		return present[0]
+	case 0:
+		for _, k := range keys {
+			if o.misspelt[k] {
+				return ""
+			}
+		}
+		o.r.addf(o.node, o.path, "needs one of %s (%s)", strings.Join(keys, ", "), hint)
+	default:
+		o.r.addf(o.values[present[1]], o.field(present[1]), "give only one of %s", strings.Join(present, ", "))
+	}
+	return ""
+}
+
+// list returns the items of a sequence value, or nil after reporting when
+// the value is not a sequence.
+func (r *reader) list(n *yaml.Node, field, hint string) []*yaml.Node {
+	if n.Kind != yaml.SequenceNode {
+		if n.Tag == "!!null" {
+			return nil
+		}
+		r.addf(n, field, "expected a list (%s), got %s", hint, describe(n))
+		return nil
+	}
+	return n.Content
+}
+
+// describe names the kind of a YAML node for messages.
+func describe(n *yaml.Node) string {
+	switch n.Kind {
+	case yaml.MappingNode:
+		return "a mapping"
+	case yaml.SequenceNode:
+		return "a list"
+	case yaml.AliasNode:
+		return "an alias"
+	}
+	if n.Tag == "!!null" {
+		return "nothing"
+	}
+	return fmt.Sprintf("%q", n.Value)
+}
+
+// example gives a valid value of a kind for messages.
+func example(k units.Kind) string {
+	switch k {
+	case units.Length:
+		return "1.6 mm"
+	case units.Area:
+		return "25 mm2"
+	case units.Temperature:
+		return "35 degC"
+	case units.TemperatureDifference:
+		return "5 K"
+	case units.Power:
+		return "12 W"
+	case units.Conductivity:
+		return "0.3 W/m/K"
+	case units.ThermalResistance:
+		return "0.8 K/W"
+	case units.Conductance:
+		return "2 W/K"
+	case units.SpecificResistance:
+		return "0.5 K*cm2/W"
+	case units.HeatTransferCoefficient:
+		return "10 W/m2/K"
+	case units.Pressure:
+		return "101.325 kPa"
+	case units.Density:
+		return "2700 kg/m3"
+	case units.SpecificHeat:
+		return "900 J/kg/K"
+	case units.Dimensionless:
+		return "0.85"
+	}
+	return "1 " + k.SIUnit()
+}
+
+// sortedKeys returns the keys of m in order.
+func sortedKeys[V any](m map[string]V) []string {
+	out := make([]string, 0, len(m))
+	for k := range m {
+		out = append(out, k)
+	}
+	sort.Strings(out)
+	return out
+}
+
+// withArticle puts "a" or "an" before a noun phrase.
+func withArticle(s string) string {
+	if s != "" && strings.ContainsRune("aeiou", rune(s[0])) {
+		return "an " + s
+	}
+	return "a " + s
+}
