@@ -1,0 +1,182 @@
+package viz
+
+import (
+	"fmt"
+	"io"
+	"sort"
+	"strings"
+
+	"github.com/heatgraph/heatgraph/network"
+)
+
+// Order is how the text report sorts nodes.
+type Order string
+
+// Node orders for the text report.
+const (
+	ByFile        Order = "file"        // as in the model file
+	ByMargin      Order = "margin"      // smallest margin first, nodes without a limit last
+	ByTemperature Order = "temperature" // hottest first
+)
+
+// Orders lists the valid orders.
+var Orders = []Order{ByFile, ByMargin, ByTemperature}
+
+// WriteText writes the human-readable report of a solution.
+func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
+	tw := &textWriter{w: w}
+	m := sol.Net.Model
+	title := m.Title
+	if title == "" {
+		title = m.File
+	}
+	tw.printf("%s\n", title)
+	tw.printf("model %s; ambient %.2f °C, %s\n", m.File, celsius(m.Ambient.Temperature), pressureText(m.Ambient))
+	tw.printf("solved in %d Newton iterations; largest residual %.2g W\n\n", run.Iterations, run.Residual)
+
+	nodes := sortNodes(sol.Nodes, order)
+	idw := len("node")
+	for _, n := range nodes {
+		idw = max(idw, len(n.ID))
+	}
+	tw.printf("%-*s  %-8s  %9s  %9s  %9s  %9s  %s\n", idw, "node", "kind", "T [°C]", "input [W]", "limit [°C]", "margin [K]", "status")
+	for _, n := range nodes {
+		input, limit, margin := "", "", ""
+		if n.Power != 0 {
+			input = fmt.Sprintf("%.3f", n.Power)
+		}
+		if n.HasLimit {
+			limit = fmt.Sprintf("%.2f", celsius(n.Limit))
+			margin = fmt.Sprintf("%+.2f", n.Margin)
+		}
+		tw.printf("%-*s  %-8s  %9.2f  %9s  %10s  %10s  %s\n", idw, n.ID, n.Kind, celsius(n.Temperature), input, limit, margin, statusText(n.Status))
+	}
+
+	idw = len("link")
+	kw := len("kind")
+	for _, l := range sol.Links {
+		idw = max(idw, len(l.ID))
+		kw = max(kw, len(l.Kind))
+	}
+	tw.printf("\n%-*s  %-*s  %10s  %s\n", idw, "link", kw, "kind", "heat [W]", "from → to (positive heat flows this way)")
+	for _, l := range sol.Links {
+		tw.printf("%-*s  %-*s  %10.3f  %s → %s\n", idw, l.ID, kw, l.Kind, l.Heat, l.From, l.To)
+	}
+
+	b := sol.Balance
+	tw.printf("\nenergy balance [W]\n")
+	tw.printf("  heat in                %12.4f\n", b.In)
+	for _, o := range b.Out {
+		if o.Heat != 0 {
+			tw.printf("  out through %-10s %12.4f\n", o.Node, o.Heat)
+		}
+	}
+	tw.printf("  imbalance              %12.3g\n", b.Imbalance)
+
+	if len(sol.Warnings) > 0 {
+		tw.printf("\nwarnings\n")
+		for _, warn := range sol.Warnings {
+			tw.printf("  - %s\n", warn)
+		}
+	}
+	tw.printf("\n%s\n", Verdict(sol))
+	tw.printf("\n%s\n", wrap(Caution, 100))
+	return tw.err
+}
+
+// Verdict summarises the limit checks in one line.
+func Verdict(sol *network.Solution) string {
+	var over, tight []string
+	checked := 0
+	for _, n := range sol.Nodes {
+		switch n.Status {
+		case network.Over:
+			over = append(over, fmt.Sprintf("%s (%+.2f K)", n.ID, n.Margin))
+		case network.Tight:
+			tight = append(tight, fmt.Sprintf("%s (%+.2f K)", n.ID, n.Margin))
+		}
+		if n.HasLimit {
+			checked++
+		}
+	}
+	var parts []string
+	switch {
+	case checked == 0:
+		parts = append(parts, "no node has a limit to check")
+	case len(over) > 0:
+		parts = append(parts, fmt.Sprintf("OVER LIMIT: %s", strings.Join(over, ", ")))
+	default:
+		parts = append(parts, fmt.Sprintf("all %d limits hold", checked))
+	}
+	if len(tight) > 0 {
+		parts = append(parts, fmt.Sprintf("below the required margin of %.1f K: %s", sol.Net.Model.RequiredMargin, strings.Join(tight, ", ")))
+	}
+	return strings.Join(parts, "; ")
+}
+
+func statusText(s network.Status) string {
+	switch s {
+	case network.Over:
+		return "OVER"
+	case network.NoLimit:
+		return "-"
+	}
+	return string(s)
+}
+
+func pressureText(a network.Ambient) string {
+	if a.FromAlt {
+		return fmt.Sprintf("%.2f kPa (standard atmosphere at %.0f m)", a.Pressure/1000, a.Altitude)
+	}
+	return fmt.Sprintf("%.2f kPa", a.Pressure/1000)
+}
+
+func sortNodes(nodes []network.NodeResult, order Order) []network.NodeResult {
+	out := append([]network.NodeResult(nil), nodes...)
+	switch order {
+	case ByMargin:
+		sort.SliceStable(out, func(i, j int) bool {
+			a, b := out[i], out[j]
+			if a.HasLimit != b.HasLimit {
+				return a.HasLimit
+			}
+			return a.HasLimit && a.Margin < b.Margin
+		})
+	case ByTemperature:
+		sort.SliceStable(out, func(i, j int) bool { return out[i].Temperature > out[j].Temperature })
+	}
+	return out
+}
+
+// wrap breaks text into lines of at most width bytes at spaces.
+func wrap(text string, width int) string {
+	var b strings.Builder
+	line := 0
+	for i, word := range strings.Fields(text) {
+		if i > 0 {
+			if line+1+len(word) > width {
+				b.WriteByte('\n')
+				line = 0
+			} else {
+				b.WriteByte(' ')
+				line++
+			}
+		}
+		b.WriteString(word)
+		line += len(word)
+	}
+	return b.String()
+}
+
+// textWriter remembers the first write error so that the report code can
+// stay linear.
+type textWriter struct {
+	w   io.Writer
+	err error
+}
+
+func (t *textWriter) printf(format string, args ...any) {
+	if t.err == nil {
+		_, t.err = fmt.Fprintf(t.w, format, args...)
+	}
+}
