@@ -41,13 +41,7 @@ func Render(dot string, format ImageFormat) ([]byte, error) {
 	if format == FormatDOT {
 		return []byte(dot), nil
 	}
-	var gf graphviz.Format
-	switch format {
-	case FormatSVG:
-		gf = graphviz.SVG
-	case FormatPNG:
-		gf = graphviz.PNG
-	default:
+	if format != FormatSVG && format != FormatPNG {
 		return nil, fmt.Errorf("unknown diagram format %q", format)
 	}
 	ctx := context.Background()
@@ -56,13 +50,16 @@ func Render(dot string, format ImageFormat) ([]byte, error) {
 		return nil, fmt.Errorf("starting the layout engine: %w", err)
 	}
 	defer gv.Close()
+	if format == FormatPNG {
+		return renderPNG(gv, dot)
+	}
 	graph, err := graphviz.ParseBytes([]byte(dot))
 	if err != nil {
 		return nil, fmt.Errorf("reading the diagram: %w", err)
 	}
 	defer graph.Close()
 	var buf bytes.Buffer
-	if err := gv.Render(ctx, graph, gf, &buf); err != nil {
+	if err := gv.Render(ctx, graph, graphviz.SVG, &buf); err != nil {
 		return nil, fmt.Errorf("laying out the diagram: %w", err)
 	}
 	return buf.Bytes(), nil

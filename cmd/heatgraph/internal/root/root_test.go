@@ -1,0 +1,275 @@
+package root
+
+import (
+	"bytes"
+	"encoding/csv"
+	"encoding/json"
+	"image/png"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+const examples = "../../../../examples/"
+
+// run executes heatgraph with args on test streams.
+func run(args ...string) (code int, stdout, stderr string) {
+	ios, _, out, errOut := iostreams.Test()
+	code = Main(args, ios)
+	return code, out.String(), errOut.String()
+}
+
+// writeModel writes a model file into a test folder and returns its path.
+func writeModel(t *testing.T, text string) string {
+	t.Helper()
+	path := filepath.Join(t.TempDir(), "model.yaml")
+	require.NoError(t, os.WriteFile(path, []byte(text), 0o644))
+	return path
+}
+
+const overLimit = `
+ambient: {temperature: 40 degC}
+nodes:
+  - {id: chip, power: 10 W, limit: 60 degC}
+links:
+  - {kind: lumped, from: chip, to: ambient, resistance: 3 K/W}
+`
+
+// Heat cannot be pulled out of a node that only radiates to warmer
+// surroundings at this rate: σT⁴ would have to be negative.
+const noSolution = `
+ambient: {temperature: 300 K}
+nodes:
+  - {id: cooler, power: -1000 W}
+links:
+  - {kind: radiation, from: cooler, emissivity: 1, area: 1 cm2}
+`
+
+func TestSolveExamples(t *testing.T) {
+	files, err := filepath.Glob(examples + "*.yaml")
+	require.NoError(t, err)
+	require.GreaterOrEqual(t, len(files), 2)
+	for _, f := range files {
+		code, out, stderr := run("solve", f)
+		assert.Equal(t, exit.OK, code, "%s: %s", f, stderr)
+		assert.Contains(t, out, "energy balance [W]", f)
+		assert.Contains(t, out, "limits hold", f)
+		assert.Contains(t, out, "Confirm them by measurement", f)
+	}
+}
+
+func TestSolveJSON(t *testing.T) {
+	code, out, stderr := run("solve", examples+"outdoor-controller.yaml", "--format", "json")
+	require.Equal(t, exit.OK, code, stderr)
+	var doc struct {
+		Units  map[string]string `json:"units"`
+		Solver struct {
+			Converged bool `json:"converged"`
+		} `json:"solver"`
+		Nodes []struct {
+			ID           string   `json:"id"`
+			TemperatureC *float64 `json:"temperature_degC"`
+			MarginK      *float64 `json:"margin_K"`
+		} `json:"nodes"`
+		Links []struct {
+			ID    string   `json:"id"`
+			From  string   `json:"from"`
+			To    string   `json:"to"`
+			HeatW *float64 `json:"heat_W"`
+		} `json:"links"`
+		Balance struct {
+			InW        float64 `json:"heat_in_W"`
+			ImbalanceW float64 `json:"imbalance_W"`
+			Out        []struct {
+				Node  string  `json:"node"`
+				HeatW float64 `json:"heat_W"`
+			} `json:"heat_out"`
+		} `json:"energy_balance"`
+		Caution string `json:"caution"`
+	}
+	require.NoError(t, json.Unmarshal([]byte(out), &doc))
+	assert.True(t, doc.Solver.Converged)
+	assert.Equal(t, "W", doc.Units["heat"])
+	require.NotEmpty(t, doc.Nodes)
+	for _, n := range doc.Nodes {
+		assert.NotEmpty(t, n.ID)
+		assert.NotNil(t, n.TemperatureC, n.ID)
+	}
+	for _, l := range doc.Links {
+		assert.NotEmpty(t, l.From)
+		assert.NotEmpty(t, l.To)
+		assert.NotNil(t, l.HeatW, l.ID)
+	}
+	// 5.5 + 3.2 + 1.8 + 2 W go in; all of it leaves through ambient and
+	// the pole.
+	assert.InDelta(t, 12.5, doc.Balance.InW, 1e-12)
+	sum := 0.0
+	for _, o := range doc.Balance.Out {
+		sum += o.HeatW
+	}
+	assert.InDelta(t, 12.5, sum, 1e-9)
+	assert.Less(t, abs(doc.Balance.ImbalanceW), 1e-9)
+	assert.Contains(t, doc.Caution, "estimates")
+	// Full precision: a temperature is printed with more digits than the
+	// text report's two decimals.
+	assert.Regexp(t, `"temperature_degC": -?\d+\.\d{6,}`, out)
+}
+
+func TestSolveCSV(t *testing.T) {
+	code, out, _ := run("solve", examples+"bench-logger.yaml", "-f", "csv")
+	require.Equal(t, exit.OK, code)
+	rows, err := csv.NewReader(strings.NewReader(out)).ReadAll()
+	require.NoError(t, err)
+	assert.Equal(t, []string{"record", "id", "kind", "from", "to", "temperature_degC", "limit_degC", "margin_K", "status", "power_W", "heat_W"}, rows[0])
+	kinds := map[string]int{}
+	for _, r := range rows[1:] {
+		kinds[r[0]]++
+	}
+	assert.Positive(t, kinds["node"])
+	assert.Positive(t, kinds["link"])
+	assert.Positive(t, kinds["boundary"])
+}
+
+func TestSolveOverLimit(t *testing.T) {
+	code, out, _ := run("solve", writeModel(t, overLimit))
+	assert.Equal(t, exit.LimitExceeded, code)
+	assert.Contains(t, out, "OVER LIMIT: chip (-10.00 K)")
+	code, out, _ = run("solve", writeModel(t, overLimit), "--format", "json")
+	assert.Equal(t, exit.LimitExceeded, code)
+	assert.Contains(t, out, `"limits_exceeded": [`)
+}
+
+func TestSolveNoSolution(t *testing.T) {
+	path := writeModel(t, noSolution)
+	code, out, stderr := run("solve", path)
+	assert.Equal(t, exit.NotConverged, code)
+	assert.Empty(t, out, "no result may be printed when there is no solution")
+	assert.Contains(t, stderr, "no solution")
+	code, out, _ = run("solve", path, "--format", "json")
+	assert.Equal(t, exit.NotConverged, code)
+	assert.Contains(t, out, `"converged": false`)
+	assert.NotContains(t, out, `"nodes"`)
+}
+
+func TestSolveInvalid(t *testing.T) {
+	code, out, stderr := run("solve", "../../../../testdata/invalid/unknown-nodes.yaml")
+	assert.Equal(t, exit.BadInput, code)
+	assert.Empty(t, out)
+	assert.Contains(t, stderr, `unknown-nodes.yaml:9: links[pad].from: unknown node "cpu-lidd" (did you mean "cpu-lid"?)`)
+	assert.Contains(t, stderr, "3 problems found")
+	assert.NotContains(t, stderr, "goroutine", "no stack traces")
+}
+
+func TestBadCommandLines(t *testing.T) {
+	for _, args := range [][]string{
+		{"solve"},
+		{"solve", "a.yaml", "b.yaml"},
+		{"solve", examples + "bench-logger.yaml", "--format", "xml"},
+		{"solve", examples + "bench-logger.yaml", "--sort", "size"},
+		{"solve", examples + "bench-logger.yaml", "--no-such-flag"},
+		{"frobnicate"},
+		{"graph", examples + "bench-logger.yaml"},
+		{"graph", examples + "bench-logger.yaml", "-o", "out.pdf"},
+		{"graph", examples + "bench-logger.yaml", "-o", "out.svg", "--colour", "rainbow"},
+		{"solve", "no-such-file.yaml"},
+	} {
+		code, _, stderr := run(args...)
+		assert.Equal(t, exit.BadInput, code, "%v: %s", args, stderr)
+		assert.NotEmpty(t, stderr, args)
+	}
+}
+
+func TestSolveOutputFile(t *testing.T) {
+	dir := t.TempDir()
+	path := filepath.Join(dir, "result.json")
+	code, out, _ := run("solve", examples+"bench-logger.yaml", "-f", "json", "-o", path)
+	require.Equal(t, exit.OK, code)
+	assert.Empty(t, out)
+	data, err := os.ReadFile(path)
+	require.NoError(t, err)
+	assert.True(t, json.Valid(data))
+	code, _, stderr := run("solve", examples+"bench-logger.yaml", "-o", filepath.Join(dir, "missing", "r.txt"))
+	assert.Equal(t, exit.OutputFailed, code, stderr)
+}
+
+func TestCheck(t *testing.T) {
+	code, out, _ := run("check", examples+"outdoor-controller.yaml")
+	assert.Equal(t, exit.OK, code)
+	assert.Contains(t, out, "valid: 12 nodes (2 fixed, 10 free), 3 components, 19 links")
+	code, _, stderr := run("check", "../../../../testdata/invalid/isolated.yaml")
+	assert.Equal(t, exit.BadInput, code)
+	assert.Contains(t, stderr, `nodes "shield", "can" have no path to any fixed temperature`)
+}
+
+func TestGraph(t *testing.T) {
+	dir := t.TempDir()
+	for _, name := range []string{"g.dot", "g.svg", "g.png"} {
+		path := filepath.Join(dir, name)
+		code, _, stderr := run("graph", examples+"outdoor-controller.yaml", "-o", path, "--colour", "temperature")
+		require.Equal(t, exit.OK, code, stderr)
+		data, err := os.ReadFile(path)
+		require.NoError(t, err)
+		switch filepath.Ext(name) {
+		case ".dot":
+			assert.Contains(t, string(data), `"cpu-pad"->"lid"`)
+		case ".svg":
+			assert.Contains(t, string(data), "<svg")
+			assert.Contains(t, string(data), "cpu&#45;pad")
+		case ".png":
+			img, err := png.Decode(bytes.NewReader(data))
+			require.NoError(t, err)
+			assert.Greater(t, img.Bounds().Dx(), 500)
+		}
+	}
+	entries, _ := os.ReadDir(dir)
+	assert.Len(t, entries, 3, "no temporary files may be left behind")
+}
+
+// A failed solve must not touch an existing diagram.
+func TestGraphKeepsGoodFileOnFailure(t *testing.T) {
+	dir := t.TempDir()
+	path := filepath.Join(dir, "good.dot")
+	require.NoError(t, os.WriteFile(path, []byte("digraph good {}\n"), 0o644))
+	code, _, _ := run("graph", writeModel(t, noSolution), "-o", path)
+	assert.Equal(t, exit.NotConverged, code)
+	data, _ := os.ReadFile(path)
+	assert.Equal(t, "digraph good {}\n", string(data))
+	code, _, _ = run("graph", "../../../../testdata/invalid/geometry.yaml", "-o", path)
+	assert.Equal(t, exit.BadInput, code)
+	data, _ = os.ReadFile(path)
+	assert.Equal(t, "digraph good {}\n", string(data))
+}
+
+func TestListings(t *testing.T) {
+	code, out, _ := run("materials")
+	assert.Equal(t, exit.OK, code)
+	assert.Contains(t, out, "fr4-through-plane")
+	assert.Contains(t, out, "Sarvar")
+	code, out, _ = run("kinds")
+	assert.Equal(t, exit.OK, code)
+	for _, k := range []string{"conduction", "contact", "lumped", "convection", "radiation"} {
+		assert.Contains(t, out, k)
+	}
+	code, out, _ = run("--version")
+	assert.Equal(t, exit.OK, code)
+	assert.Contains(t, out, Version)
+}
+
+func TestMonitor(t *testing.T) {
+	code, _, stderr := run("solve", examples+"bench-logger.yaml", "--monitor")
+	assert.Equal(t, exit.OK, code)
+	assert.Contains(t, stderr, "newton   1:")
+}
+
+func abs(x float64) float64 {
+	if x < 0 {
+		return -x
+	}
+	return x
+}

@@ -1,0 +1,133 @@
+package viz
+
+import (
+	"bytes"
+	"encoding/json"
+	"image/color"
+	"strings"
+	"testing"
+
+	"github.com/heatgraph/heatgraph/network"
+	"github.com/heatgraph/heatgraph/solve"
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+// A node heated by 3 W, held by 10 K/W to ambient at 20 °C: 50 °C, and a
+// second link defined against the flow, so that its heat is negative.
+const small = `
+title: small
+ambient: {temperature: 20 degC}
+nodes:
+  - {id: chip, power: 3 W, limit: 60 degC}
+  - {id: shelf, kind: fixed, temperature: 20 degC}
+links:
+  - {id: up, kind: lumped, from: chip, to: ambient, resistance: 20 K/W}
+  - {id: back, kind: lumped, from: shelf, to: chip, resistance: 20 K/W}
+`
+
+func solved(t *testing.T) (*network.Solution, Run) {
+	t.Helper()
+	m, err := network.Parse("small.yaml", []byte(small))
+	require.NoError(t, err)
+	net, err := network.Build(m)
+	require.NoError(t, err)
+	p := net.Steady()
+	r := solve.Newton(p, p.InitialGuess(), solve.Settings{})
+	require.True(t, r.Reason.Converged())
+	return net.Solution(r.X), Run{Converged: true, Reason: r.Reason.String(), Iterations: r.Iterations}
+}
+
+func TestDOTFollowsHeat(t *testing.T) {
+	sol, _ := solved(t)
+	dot, err := DOT(sol, ColourMargin)
+	require.NoError(t, err)
+	// "back" is defined shelf -> chip but heat flows chip -> shelf.
+	assert.Contains(t, dot, `"chip"->"shelf"`)
+	assert.NotContains(t, dot, `"shelf"->"chip"`)
+	assert.Contains(t, dot, `label="1.5 W"`)
+	assert.Contains(t, dot, "margin +10.0 K")
+	assert.Contains(t, dot, "cluster_legend")
+	again, _ := DOT(sol, ColourMargin)
+	assert.Equal(t, dot, again, "the DOT text must be deterministic")
+}
+
+func TestJSONFullPrecision(t *testing.T) {
+	sol, run := solved(t)
+	var buf bytes.Buffer
+	require.NoError(t, WriteJSON(&buf, NewReport(sol.Net.Model, sol, run)))
+	var r Report
+	require.NoError(t, json.Unmarshal(buf.Bytes(), &r))
+	assert.Equal(t, sol.Nodes[1].Temperature-273.15, r.Nodes[1].TemperatureC)
+	assert.Equal(t, sol.Links[1].Heat, r.Links[1].HeatW)
+	assert.InDelta(t, -1.5, r.Links[1].HeatW, 1e-12)
+	assert.Equal(t, []string(nil), r.Exceeded)
+}
+
+func TestTextReport(t *testing.T) {
+	sol, run := solved(t)
+	var buf bytes.Buffer
+	require.NoError(t, WriteText(&buf, sol, run, ByMargin))
+	out := buf.String()
+	assert.Contains(t, out, "chip")
+	assert.Contains(t, out, "+10.00")
+	assert.Contains(t, out, "all 1 limits hold")
+	lines := strings.Split(out, "\n")
+	// Sorted by margin: the only node with a limit comes first.
+	for i, l := range lines {
+		if strings.HasPrefix(l, "node ") {
+			assert.True(t, strings.HasPrefix(lines[i+1], "chip"), lines[i+1])
+		}
+	}
+}
+
+func TestScales(t *testing.T) {
+	assert.Equal(t, marginScale[0].c, marginScale.at(-100))
+	assert.Equal(t, marginScale[len(marginScale)-1].c, marginScale.at(1e3))
+	mid := marginScale.at(2.5) // halfway between rust (0 K) and straw (5 K)
+	assert.InDelta(t, (0xc0+0xe8)/2.0, mid.r, 1e-9)
+	assert.Equal(t, "#ffffff", textOn(marginScale[0].c))
+	assert.Equal(t, "#1d1d1d", textOn(noLimitFill))
+}
+
+func TestXdotReader(t *testing.T) {
+	r := &xdotReader{s: "c 7 -#3d4852 B 4 1 2 3 4 5 6 7 8 T 10 20 0 30 6 -12 °C"}
+	r.space()
+	assert.Equal(t, byte('c'), r.s[r.i])
+	r.i++
+	assert.Equal(t, "#3d4852", r.str())
+	r.space()
+	r.i++ // B
+	assert.Equal(t, [][2]float64{{1, 2}, {3, 4}, {5, 6}, {7, 8}}, r.points())
+	r.space()
+	r.i++ // T
+	assert.Equal(t, []float64{10, 20, 0, 30}, []float64{r.num(), r.num(), r.num(), r.num()})
+	assert.Equal(t, "12 °C", r.str(), "the byte count includes the two bytes of °")
+	assert.NoError(t, r.err)
+	bad := &xdotReader{s: "5 -ab"}
+	bad.str()
+	assert.Error(t, bad.err)
+}
+
+func TestParseColour(t *testing.T) {
+	assert.Equal(t, color.NRGBA{0x3d, 0x48, 0x52, 0xff}, parseColour("#3d4852"))
+	assert.Equal(t, color.NRGBA{0xff, 0xff, 0xfe, 0x00}, parseColour("#fffffe00"))
+	assert.Equal(t, color.Transparent, parseColour("transparent"))
+}
+
+func TestRenderFormats(t *testing.T) {
+	sol, _ := solved(t)
+	dot, err := DOT(sol, ColourTemperature)
+	require.NoError(t, err)
+	svg, err := Render(dot, FormatSVG)
+	require.NoError(t, err)
+	assert.Contains(t, string(svg), "<svg")
+	png, err := Render(dot, FormatPNG)
+	require.NoError(t, err)
+	assert.True(t, bytes.HasPrefix(png, []byte("\x89PNG")))
+	_, err = FormatFor("x.pdf")
+	assert.Error(t, err)
+	f, err := FormatFor("X.SVG")
+	assert.NoError(t, err)
+	assert.Equal(t, FormatSVG, f)
+}
