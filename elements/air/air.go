@@ -103,7 +103,7 @@ func SpecificHeat(T dual.Num) dual.Num { return cpSpline.at(T) }
 // cpTable holds cp of air at atmospheric pressure, J/(kg K), from Incropera
 // & DeWitt, Fundamentals of Heat and Mass Transfer, Table A.4, 200 K to
 // 600 K in steps of 50 K. The digits were checked against two independent
-// public transcriptions of that table; they agree on every row except
+// public copies of that table; they agree on every row except
 // 550 K, where one gives 1039 and the other 1040 (used here).
 var cpTable = struct{ t, cp []float64 }{
 	t:  []float64{200, 250, 300, 350, 400, 450, 500, 550, 600},

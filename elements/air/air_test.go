@@ -28,7 +28,7 @@ func checkDerivative(t *testing.T, name string, f func(dual.Num) dual.Num, x flo
 // incroperaA4 holds rows of Incropera & DeWitt, Fundamentals of Heat and
 // Mass Transfer, Table A.4 (air at atmospheric pressure): T (K), cp
 // (J/(kg K)), μ (Pa s), k (W/(m K)), Pr. Digits checked against two public
-// transcriptions of the table (200 K from one only; at 550 K they give cp
+// copies of the table (200 K from one only; at 550 K they give cp
 // 1039 and 1040).
 var incroperaA4 = []struct {
 	T, cp, mu, k, pr float64
@@ -73,7 +73,7 @@ func TestIncroperaTableA4(t *testing.T) {
 
 func TestDensityColumnAt100kPa(t *testing.T) {
 	// Incropera & DeWitt Table A.4 density column (checked against two
-	// public transcriptions): it matches p/(R T) at 100 kPa, not at 1 atm.
+	// public copies): it matches p/(R T) at 100 kPa, not at 1 atm.
 	for _, c := range []struct{ T, rho float64 }{
 		{300, 1.1614}, {350, 0.9950}, {400, 0.8711}, {500, 0.6964}, {600, 0.5804},
 	} {

@@ -1,6 +1,7 @@
 package units
 
 import (
+	"github.com/heatgraph/heatgraph/internal/spell"
 	"strings"
 	"unicode/utf8"
 )
@@ -47,34 +48,5 @@ func closest(name string) string {
 	default:
 		limit = 2
 	}
-	best, bestDist := "", limit+1
-	for _, c := range spellings {
-		if d := editDistance(name, c); d < bestDist {
-			best, bestDist = c, d
-		}
-	}
-	return best
-}
-
-// editDistance returns the Levenshtein distance between a and b, counted in
-// runes.
-func editDistance(a, b string) int {
-	ra, rb := []rune(a), []rune(b)
-	prev := make([]int, len(rb)+1)
-	cur := make([]int, len(rb)+1)
-	for j := range prev {
-		prev[j] = j
-	}
-	for i := 1; i <= len(ra); i++ {
-		cur[0] = i
-		for j := 1; j <= len(rb); j++ {
-			cost := 1
-			if ra[i-1] == rb[j-1] {
-				cost = 0
-			}
-			cur[j] = min(prev[j]+1, cur[j-1]+1, prev[j-1]+cost)
-		}
-		prev, cur = cur, prev
-	}
-	return prev[len(rb)]
+	return spell.Closest(name, spellings, limit)
 }

@@ -483,25 +483,6 @@ func TestUnknownUnitSuggestions(t *testing.T) {
 	}
 }
 
-func TestEditDistance(t *testing.T) {
-	tests := []struct {
-		a, b string
-		want int
-	}{
-		{"", "", 0},
-		{"mm", "", 2},
-		{"kitten", "sitting", 3},
-		{"°C", "ºC", 1},
-		{"mmm", "mm", 1},
-		{"flaw", "lawn", 2},
-	}
-	for _, tt := range tests {
-		if d1, d2 := editDistance(tt.a, tt.b), editDistance(tt.b, tt.a); d1 != tt.want || d2 != tt.want {
-			t.Errorf("editDistance(%q, %q) = %d, %d the other way; want %d", tt.a, tt.b, d1, d2, tt.want)
-		}
-	}
-}
-
 func TestSymbolTable(t *testing.T) {
 	// Every spelling resolves, and no prefixed spelling shadows another symbol.
 	seen := make(map[string]bool)
