@@ -13,8 +13,18 @@ type Stamper interface {
 
 // Env holds the conditions shared by every element.
 type Env struct {
-	Pressure float64 // ambient absolute pressure, Pa
+	Pressure float64 // ambient absolute pressure, Pa; air inside the box is at this pressure too
 	Gravity  float64 // gravitational acceleration, m/s²
+	// AmbientT is the ambient temperature, K: the reference of the enthalpy
+	// that air streams carry, so that a stream's reported heat is what it
+	// carries above ambient.
+	AmbientT float64
+	// AirCp is the specific heat of air used for the enthalpy of air
+	// streams, J/(kg K), one value for the whole network so that energy is
+	// conserved exactly where streams meet. Air's cp changes by less than
+	// 1 % between 250 and 400 K (Incropera et al., Table A.4), so the
+	// network takes it at the ambient temperature.
+	AirCp float64
 }
 
 // StandardGravity is the standard acceleration of gravity, m/s² (CGPM 1901,

@@ -1,0 +1,88 @@
+package elements
+
+import (
+	"github.com/heatgraph/heatgraph/elements/air"
+	"github.com/heatgraph/heatgraph/elements/convection"
+	"github.com/heatgraph/heatgraph/elements/dual"
+)
+
+// FlatPlate is forced convection from a flat wall at node Surface to air at
+// node Air streaming along it at a given velocity (a wall in a draught or
+// in the stream of a fan outside the box):
+//
+//	q = h̄·A·(T_s − T_air),   h̄ = Nu_L·k/L,   Re_L = V·L/ν,
+//
+// with the mean Nu over the plate length L from convection.FlatPlate:
+// laminar 0.664·Re^½·Pr^⅓ below Re 5×10⁵, mixed laminar–turbulent
+// (0.037·Re^0.8 − 871)·Pr^⅓ above (Incropera et al., Fundamentals of Heat
+// and Mass Transfer, eqs. 7.30 and 7.38), air properties at the film
+// temperature and the ambient pressure.
+type FlatPlate struct {
+	Surface, Air int
+	Velocity     float64 // free-stream velocity, m/s
+	Length       float64 // plate length along the flow, m
+	Area         float64 // m²
+}
+
+// NewFlatPlate checks and returns a flat-plate forced-convection link.
+func NewFlatPlate(surface, airNode int, velocity, length, area float64) (*FlatPlate, error) {
+	if err := positive("velocity", velocity, "length", length, "area", area); err != nil {
+		return nil, err
+	}
+	return &FlatPlate{Surface: surface, Air: airNode, Velocity: velocity, Length: length, Area: area}, nil
+}
+
+// eval returns Re, Nu and h at the film temperature film.
+func (f *FlatPlate) eval(s *State, film dual.Num) (re, nu, h dual.Num, p air.Props) {
+	p = air.At(film, s.Env.Pressure)
+	re = p.Nu.Inv().Scale(f.Velocity * f.Length)
+	nu = convection.FlatPlate(re, p.Pr)
+	h = nu.Mul(p.K).Scale(1 / f.Length)
+	return re, nu, h, p
+}
+
+// Nodes returns Surface and Air.
+func (f *FlatPlate) Nodes() []int { return []int{f.Surface, f.Air} }
+
+// Stamp adds q = h·A·(T_s − T_air); h depends on both temperatures through
+// the film temperature, with derivative ∂h/∂T_film / 2 on each.
+func (f *FlatPlate) Stamp(s *State, out Stamper) {
+	ts, ta := s.T[f.Surface], s.T[f.Air]
+	_, _, h, _ := f.eval(s, dual.Var((ts+ta)/2))
+	dT := ts - ta
+	q := h.V * f.Area * dT
+	dqs := f.Area * (h.V + h.D*dT/2)
+	dqa := f.Area * (-h.V + h.D*dT/2)
+	out.AddHeat(f.Surface, -q)
+	out.AddHeat(f.Air, q)
+	out.AddDeriv(f.Surface, f.Surface, -dqs)
+	out.AddDeriv(f.Surface, f.Air, -dqa)
+	out.AddDeriv(f.Air, f.Surface, dqs)
+	out.AddDeriv(f.Air, f.Air, dqa)
+}
+
+// Report gives Re, Nu, h, the regime and warnings outside the range.
+func (f *FlatPlate) Report(s *State) Report {
+	film := (s.T[f.Surface] + s.T[f.Air]) / 2
+	re, nu, h, p := f.eval(s, dual.C(film))
+	regime, corr := "laminar", "flat plate, laminar (Incropera eq. 7.30)"
+	if re.V >= convection.CriticalRe {
+		regime, corr = "mixed laminar-turbulent", "flat plate, mixed (Incropera eq. 7.38)"
+	}
+	var warn []string
+	for _, c := range []rangeCheck{{convection.FlatPlateRe, re.V}, {convection.FlatPlatePr, p.Pr.V}} {
+		if w := c.r.Check(c.v); w != "" {
+			warn = append(warn, corr+": "+w)
+		}
+	}
+	warn = append(warn, air.Check(film, s.Env.Pressure)...)
+	return Report{Details: []Detail{
+		{Name: "regime", Text: regime},
+		{Name: "correlation", Text: corr},
+		{Name: "Re", Value: re.V},
+		{Name: "Pr", Value: p.Pr.V},
+		{Name: "Nu", Value: nu.V},
+		{Name: "h", Value: h.V, Unit: "W/(m2 K)"},
+		{Name: "film_temperature", Value: film - 273.15, Unit: "degC"},
+	}, Warnings: warn}
+}
