@@ -6,6 +6,8 @@ import (
 	"strings"
 
 	"github.com/heatgraph/heatgraph/elements"
+	"github.com/heatgraph/heatgraph/elements/air"
+	"github.com/heatgraph/heatgraph/elements/dual"
 )
 
 // Node is a node of the assembled network.
@@ -64,7 +66,12 @@ func Build(m *Model) (*Network, error) {
 	net := &Network{
 		Model: m,
 		Index: map[string]int{},
-		Env:   elements.Env{Pressure: m.Ambient.Pressure, Gravity: elements.StandardGravity},
+		Env: elements.Env{
+			Pressure: m.Ambient.Pressure,
+			Gravity:  elements.StandardGravity,
+			AmbientT: m.Ambient.Temperature,
+			AirCp:    air.SpecificHeat(dual.C(m.Ambient.Temperature)).V,
+		},
 	}
 	var problems Problems
 	add := func(n Node) int {
@@ -100,12 +107,24 @@ func Build(m *Model) (*Network, error) {
 	}
 	for _, l := range m.Links {
 		a, b := net.Index[l.From], net.Index[l.To]
-		el, err := l.Params.element(a, b)
+		others := make([]int, len(l.Others))
+		for i, id := range l.Others {
+			others[i] = net.Index[id]
+		}
+		el, err := l.Params.element(linkEnv{from: a, to: b, others: others, env: &net.Env})
 		if err != nil {
 			problems = append(problems, Problem{File: m.File, Line: l.Line, Field: "links[" + l.ID + "]", Message: err.Error()})
 			continue
 		}
 		net.Links = append(net.Links, Link{ID: l.ID, Kind: l.Kind, From: a, To: b, Note: l.Note, Line: l.Line, Element: el})
+	}
+	for _, e := range m.Enclosures {
+		links, err := net.enclosureLinks(e)
+		if err != nil {
+			problems = append(problems, Problem{File: m.File, Line: e.Line, Field: "enclosures[" + e.ID + "]", Message: err.Error()})
+			continue
+		}
+		net.Links = append(net.Links, links...)
 	}
 	problems = append(problems, m.isolated()...)
 	if len(problems) > 0 {
@@ -169,6 +188,17 @@ func (m *Model) isolated() Problems {
 	}
 	for _, l := range m.Links {
 		join(l.From, l.To)
+		for _, o := range l.Others {
+			join(l.From, o)
+		}
+	}
+	for _, e := range m.Enclosures {
+		for _, s := range e.Surfaces {
+			join(e.Surfaces[0].Node, s.Node)
+		}
+		if e.OpenTo != "" {
+			join(e.Surfaces[0].Node, e.OpenTo)
+		}
 	}
 	anchored := map[int]bool{}
 	for i, n := range nodes {

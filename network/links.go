@@ -9,8 +9,15 @@ import (
 
 // LinkParams holds the kind-specific values of a link, in SI units.
 type LinkParams interface {
-	// element builds the link between node indices a and b.
-	element(a, b int) (elements.Element, error)
+	// element builds the link's element.
+	element(e linkEnv) (elements.Element, error)
+}
+
+// linkEnv is what link parameters need to become an element.
+type linkEnv struct {
+	from, to int   // node indices of the link's ends
+	others   []int // node indices of its other ends (a channel's inlet), in the order of linkKind.ends
+	env      *elements.Env
 }
 
 // linkKind describes one kind of link in the model file.
@@ -20,23 +27,47 @@ type linkKind struct {
 	keys      []string // keys besides id, kind, from, to, note
 	defaultTo string   // node used when "to" is omitted; "" makes it required
 	parse     func(o *object, m *Model) LinkParams
+	// ends says which kinds of node each end may be; ends other than
+	// from and to are further nodes the link joins.
+	ends []endRule
 }
+
+// endRule restricts one end of a link to some kinds of node.
+type endRule struct {
+	key   string     // "from", "to", or a further end such as "inlet"
+	role  string     // what the node is to the link, for messages
+	kinds []NodeKind // the kinds allowed
+}
+
+var (
+	solidKinds   = []NodeKind{Solid, Fixed, Junction}
+	airwayKinds  = []NodeKind{Air, Fixed}
+	surfaceRules = []endRule{{"from", "the surface", solidKinds}, {"to", "the air", airwayKinds}}
+	solidRules   = []endRule{{"from", "each end", solidKinds}, {"to", "each end", solidKinds}}
+)
 
 // commonLinkKeys are accepted by every kind.
 var commonLinkKeys = []string{"id", "kind", "from", "to", "note"}
 
-var linkKinds = []linkKind{
+// linkKinds lists every link kind, in the order the documentation
+// presents them.
+var linkKinds = append(append([]linkKind{}, solidLinkKinds...), airLinkKinds...)
+
+// solidLinkKinds are the links through solids, interfaces and surfaces.
+var solidLinkKinds = []linkKind{
 	{
 		name:    "conduction",
 		summary: "conduction through a slab or bar: k·A/L",
 		keys:    []string{"material", "conductivity", "area", "thickness", "length"},
 		parse:   parseConduction,
+		ends:    solidRules,
 	},
 	{
 		name:    "contact",
 		summary: "interface resistance: area-specific resistance over an area, or a total",
 		keys:    []string{"specific_resistance", "area", "resistance"},
 		parse:   parseContact,
+		ends:    solidRules,
 	},
 	{
 		name:    "lumped",
@@ -53,10 +84,11 @@ var linkKinds = []linkKind{
 	},
 	{
 		name:      "radiation",
-		summary:   "gray radiation from a surface to large surroundings: ε·σ·A·F·(T⁴ − T∞⁴)",
-		keys:      []string{"emissivity", "area", "view_factor"},
+		summary:   "gray radiation to large surroundings, ε·σ·A·F·(T⁴ − T∞⁴), or between two gray surfaces",
+		keys:      []string{"emissivity", "area", "view_factor", "to_emissivity", "to_area"},
 		defaultTo: AmbientID,
 		parse:     parseRadiation,
+		ends:      solidRules,
 	},
 }
 
@@ -102,8 +134,8 @@ type Conduction struct {
 	Length       float64 // thickness or length along the heat flow, m
 }
 
-func (c *Conduction) element(a, b int) (elements.Element, error) {
-	return elements.Slab(a, b, c.Conductivity, c.Area, c.Length)
+func (c *Conduction) element(e linkEnv) (elements.Element, error) {
+	return elements.Slab(e.from, e.to, c.Conductivity, c.Area, c.Length)
 }
 
 func parseConduction(o *object, m *Model) LinkParams {
@@ -144,11 +176,11 @@ type Contact struct {
 	Resistance float64 // total, K/W (when Specific is zero)
 }
 
-func (c *Contact) element(a, b int) (elements.Element, error) {
+func (c *Contact) element(e linkEnv) (elements.Element, error) {
 	if c.Specific > 0 {
-		return elements.Contact(a, b, c.Specific, c.Area)
+		return elements.Contact(e.from, e.to, c.Specific, c.Area)
 	}
-	return elements.Resistance(a, b, c.Resistance)
+	return elements.Resistance(e.from, e.to, c.Resistance)
 }
 
 func parseContact(o *object, _ *Model) LinkParams {
@@ -179,8 +211,8 @@ type Lumped struct {
 	Conductance float64 // W/K
 }
 
-func (l *Lumped) element(a, b int) (elements.Element, error) {
-	return &elements.Conductance{A: a, B: b, G: l.Conductance}, nil
+func (l *Lumped) element(e linkEnv) (elements.Element, error) {
+	return &elements.Conductance{A: e.from, B: e.to, G: l.Conductance}, nil
 }
 
 func parseLumped(o *object, _ *Model) LinkParams {
@@ -203,8 +235,8 @@ type Convection struct {
 	Area        float64 // m²
 }
 
-func (c *Convection) element(a, b int) (elements.Element, error) {
-	return elements.FixedConvection(a, b, c.Coefficient, c.Area)
+func (c *Convection) element(e linkEnv) (elements.Element, error) {
+	return elements.FixedConvection(e.from, e.to, c.Coefficient, c.Area)
 }
 
 func parseConvection(o *object, _ *Model) LinkParams {
@@ -216,26 +248,43 @@ func parseConvection(o *object, _ *Model) LinkParams {
 	return &Convection{Coefficient: h, Area: a}
 }
 
-// Radiation is gray radiation from a surface to large surroundings.
+// Radiation is gray radiation from a surface to large surroundings, or,
+// when the other surface's emissivity and area are given, between two gray
+// surfaces.
 type Radiation struct {
-	Emissivity float64
-	Area       float64 // m²
-	ViewFactor float64 // fraction of the surroundings' view, default 1
+	Emissivity   float64
+	Area         float64 // m²
+	ViewFactor   float64 // from this surface to the other, default 1
+	ToEmissivity float64 // the other surface, 0 for large surroundings
+	ToArea       float64 // m², 0 for large surroundings
 }
 
-func (r *Radiation) element(a, b int) (elements.Element, error) {
-	return elements.RadiationToSurroundings(a, b, r.Emissivity, r.Area, r.ViewFactor)
+func (r *Radiation) element(e linkEnv) (elements.Element, error) {
+	if r.ToArea > 0 {
+		return elements.RadiationBetween(e.from, e.to, r.Emissivity, r.Area, r.ToEmissivity, r.ToArea, r.ViewFactor)
+	}
+	return elements.RadiationToSurroundings(e.from, e.to, r.Emissivity, r.Area, r.ViewFactor)
 }
 
 func parseRadiation(o *object, _ *Model) LinkParams {
 	r := &Radiation{ViewFactor: 1}
 	eps, ok1 := o.fraction("emissivity", true)
 	a, ok2 := o.positive("area", units.Area, true)
-	ok3 := true
+	ok3, ok4 := true, true
 	if o.has("view_factor") {
 		r.ViewFactor, ok3 = o.fraction("view_factor", true)
 	}
-	if !ok1 || !ok2 || !ok3 {
+	if o.has("to_emissivity") || o.has("to_area") {
+		var okE, okA bool
+		r.ToEmissivity, okE = o.fraction("to_emissivity", true)
+		r.ToArea, okA = o.positive("to_area", units.Area, true)
+		ok4 = okE && okA
+		if ok2 && okA && ok3 && r.ViewFactor*a/r.ToArea > 1+1e-9 {
+			o.r.addf(o.values["view_factor"], o.field("view_factor"), "%.4g from %.4g m2 to %.4g m2 gives %.4g back by reciprocity (A1·F12 = A2·F21), above 1", r.ViewFactor, a, r.ToArea, r.ViewFactor*a/r.ToArea)
+			ok4 = false
+		}
+	}
+	if !ok1 || !ok2 || !ok3 || !ok4 {
 		return nil
 	}
 	r.Emissivity, r.Area = eps, a

@@ -11,6 +11,7 @@ type Model struct {
 	Nodes          []NodeSpec // in file order
 	Components     []ComponentSpec
 	Links          []LinkSpec
+	Enclosures     []EnclosureSpec
 }
 
 // Ambient describes the air around the box.
@@ -38,12 +39,15 @@ const (
 	Fixed NodeKind = "fixed"
 	// Junction: the junction node of a component's compact model.
 	Junction NodeKind = "junction"
+	// Air: air at one place, the well-mixed air of a compartment or the
+	// bulk temperature of a stream at one station along its path.
+	Air NodeKind = "air"
 )
 
 // NodeSpec is one entry of the nodes list.
 type NodeSpec struct {
 	ID          string
-	Kind        NodeKind // Solid or Fixed
+	Kind        NodeKind // Solid, Fixed or Air
 	Power       float64  // heat input, W (Solid only)
 	Temperature float64  // K (Fixed only)
 	Limit       float64  // highest allowed temperature, K (when HasLimit)
@@ -74,6 +78,7 @@ type LinkSpec struct {
 	Kind   string // one of LinkKinds
 	From   string
 	To     string
+	Others []string // further nodes the link joins (a channel's inlet)
 	Note   string
 	Line   int
 	Params LinkParams // nil when the entry had errors

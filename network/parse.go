@@ -16,7 +16,7 @@ import (
 // FormatVersion is the model format version this build reads.
 const FormatVersion = 1
 
-var topKeys = []string{"heatgraph", "title", "ambient", "required_margin", "materials", "nodes", "components", "links"}
+var topKeys = []string{"heatgraph", "title", "ambient", "required_margin", "materials", "nodes", "components", "links", "enclosures"}
 
 // ReadFile reads and checks a model file. On invalid input the error is a
 // Problems list naming every problem found, each with its line.
@@ -89,7 +89,7 @@ func Parse(file string, data []byte) (*Model, error) {
 	if n, ok := top.values["materials"]; ok {
 		r.readMaterials(n, m.Materials)
 	}
-	ids := map[string]int{AmbientID: 0}
+	ids := map[string]nodeRef{AmbientID: {kind: Fixed}}
 	before := len(r.problems)
 	if n, ok := top.values["nodes"]; ok {
 		m.Nodes = r.readNodes(n, ids)
@@ -104,8 +104,12 @@ func Parse(file string, data []byte) (*Model, error) {
 	if n, ok := top.values["links"]; ok {
 		m.Links = r.readLinks(n, m, ids)
 	}
+	if n, ok := top.values["enclosures"]; ok {
+		m.Enclosures = r.readEnclosures(n, ids)
+	}
 	if !r.broken {
 		r.problems = append(r.problems, m.isolated()...)
+		r.problems = append(r.problems, m.unbalancedAir()...)
 	}
 	if len(r.problems) > 0 {
 		return nil, r.problems.sorted()
@@ -167,24 +171,31 @@ func (r *reader) readAmbient(top *object, m *Model) {
 var (
 	solidKeys = []string{"id", "kind", "power", "limit", "note"}
 	fixedKeys = []string{"id", "kind", "temperature", "note"}
-	nodeKinds = []string{string(Solid), string(Fixed)}
+	airKeys   = []string{"id", "kind", "limit", "note"}
+	nodeKinds = []string{string(Solid), string(Fixed), string(Air)}
 )
 
 // claim records a new node id, reporting duplicates and the reserved name.
-func (r *reader) claim(o *object, id string, ids map[string]int) bool {
+func (r *reader) claim(o *object, id string, kind NodeKind, ids map[string]nodeRef) bool {
 	if id == AmbientID {
 		r.addf(o.values["id"], o.field("id"), "%q is reserved for the ambient node, which every model has; use it in links without defining it", id)
 		return false
 	}
-	if line, dup := ids[id]; dup {
-		r.addf(o.values["id"], o.field("id"), "%q is already used by the node or component on line %d; ids must be unique", id, line)
+	if prev, dup := ids[id]; dup {
+		r.addf(o.values["id"], o.field("id"), "%q is already used by the node or component on line %d; ids must be unique", id, prev.line)
 		return false
 	}
-	ids[id] = o.line("id")
+	ids[id] = nodeRef{line: o.line("id"), kind: kind}
 	return true
 }
 
-func (r *reader) readNodes(n *yaml.Node, ids map[string]int) []NodeSpec {
+// nodeRef is what links need to know of a node while the file is read.
+type nodeRef struct {
+	line int
+	kind NodeKind
+}
+
+func (r *reader) readNodes(n *yaml.Node, ids map[string]nodeRef) []NodeSpec {
 	var out []NodeSpec
 	for i, item := range r.list(n, "nodes", "entries with id and kind") {
 		o := r.newObject(item, "nodes["+itoa(i)+"]")
@@ -195,24 +206,35 @@ func (r *reader) readNodes(n *yaml.Node, ids map[string]int) []NodeSpec {
 		id, okID := o.id("id")
 		if okID {
 			o.path = "nodes[" + id + "]"
-			okID = r.claim(o, id, ids)
 		}
-		spec.ID = id
 		if k, ok := o.str("kind"); ok {
 			switch NodeKind(k) {
-			case Solid, Fixed:
+			case Solid, Fixed, Air:
 				spec.Kind = NodeKind(k)
 			default:
 				r.addf(o.values["kind"], o.field("kind"), "unknown node kind %q%s (valid: %s)", k, suggest(k, nodeKinds), strings.Join(nodeKinds, ", "))
 				r.broken = true
+				if okID {
+					r.claim(o, id, Solid, ids)
+				}
 				continue
 			}
 		}
+		if okID {
+			okID = r.claim(o, id, spec.Kind, ids)
+		}
+		spec.ID = id
 		spec.Note, _ = o.str("note")
 		switch spec.Kind {
 		case Solid:
 			o.checkKeys(solidKeys, "a solid node")
 			spec.Power, _ = o.quantity("power", units.Power)
+			spec.Limit, spec.HasLimit = o.quantity("limit", units.Temperature)
+		case Air:
+			if o.has("power") {
+				r.addf(o.values["power"], o.field("power"), "an air node takes no heat input; put the heat on a solid node that convects to it")
+			}
+			o.checkKeys(append(airKeys, "power"), "an air node")
 			spec.Limit, spec.HasLimit = o.quantity("limit", units.Temperature)
 		case Fixed:
 			if o.has("power") {
@@ -233,7 +255,7 @@ func (r *reader) readNodes(n *yaml.Node, ids map[string]int) []NodeSpec {
 
 var componentKeys = []string{"id", "power", "r_jc", "r_jb", "case", "board", "limit", "note"}
 
-func (r *reader) readComponents(n *yaml.Node, ids map[string]int) []ComponentSpec {
+func (r *reader) readComponents(n *yaml.Node, ids map[string]nodeRef) []ComponentSpec {
 	var out []ComponentSpec
 	for i, item := range r.list(n, "components", "entries with id, power, r_jc/r_jb and the case and board nodes") {
 		o := r.newObject(item, "components["+itoa(i)+"]")
@@ -245,7 +267,7 @@ func (r *reader) readComponents(n *yaml.Node, ids map[string]int) []ComponentSpe
 		id, okID := o.id("id")
 		if okID {
 			o.path = "components[" + id + "]"
-			okID = r.claim(o, id, ids)
+			okID = r.claim(o, id, Junction, ids)
 		}
 		c.ID = id
 		c.Note, _ = o.str("note")
@@ -274,7 +296,7 @@ func (r *reader) readComponents(n *yaml.Node, ids map[string]int) []ComponentSpe
 }
 
 // resolveComponents checks that components name existing nodes.
-func (r *reader) resolveComponents(top *object, m *Model, ids map[string]int) {
+func (r *reader) resolveComponents(top *object, m *Model, ids map[string]nodeRef) {
 	names := sortedKeys(ids)
 	for _, c := range m.Components {
 		for _, end := range []struct{ key, id string }{{"case", c.Case}, {"board", c.Board}} {
@@ -293,7 +315,7 @@ func (r *reader) resolveComponents(top *object, m *Model, ids map[string]int) {
 	}
 }
 
-func (r *reader) readLinks(n *yaml.Node, m *Model, ids map[string]int) []LinkSpec {
+func (r *reader) readLinks(n *yaml.Node, m *Model, ids map[string]nodeRef) []LinkSpec {
 	var out []LinkSpec
 	names := sortedKeys(ids)
 	linkIDs := map[string]int{}
@@ -335,6 +357,26 @@ func (r *reader) readLinks(n *yaml.Node, m *Model, ids map[string]int) []LinkSpe
 		if l.From != "" && l.From == l.To {
 			r.addf(o.values["to"], o.field("to"), "a link must join two different nodes (from and to are both %q)", l.From)
 		}
+		for _, rule := range kind.ends {
+			id := l.From
+			switch rule.key {
+			case "to":
+				id = l.To
+			case "from":
+			default:
+				id = ""
+				if !o.has(rule.key) {
+					o.missing(rule.key, "the node that is "+rule.role+", e.g. ambient")
+					r.broken = true
+				} else {
+					id = r.endpoint(o, rule.key, "", ids, names)
+				}
+				l.Others = append(l.Others, id)
+			}
+			if id != "" {
+				r.checkEnd(o, rule, kindName, id, ids[id].kind)
+			}
+		}
 		l.Params = kind.parse(o, m)
 		if !explicitID && l.From != "" && l.To != "" {
 			l.ID = l.From + "--" + l.To
@@ -354,8 +396,35 @@ func (r *reader) readLinks(n *yaml.Node, m *Model, ids map[string]int) []LinkSpe
 	return out
 }
 
+// checkEnd reports a link end whose node is of a kind the rule excludes.
+func (r *reader) checkEnd(o *object, rule endRule, kind, id string, nk NodeKind) {
+	for _, k := range rule.kinds {
+		if k == nk {
+			return
+		}
+	}
+	names := make([]string, len(rule.kinds))
+	for i, k := range rule.kinds {
+		names[i] = string(k)
+	}
+	at := o.values[rule.key]
+	if at == nil {
+		at = o.node
+	}
+	r.addf(at, o.field(rule.key), "%q is %s node, but %s of a %s link must be %s", id, withArticle(string(nk)), rule.role, kind, orList(names))
+	r.broken = true
+}
+
+// orList joins words as "a", "a or b", "a, b or c".
+func orList(words []string) string {
+	if len(words) < 2 {
+		return strings.Join(words, "")
+	}
+	return strings.Join(words[:len(words)-1], ", ") + " or " + words[len(words)-1]
+}
+
 // endpoint reads a link end and checks that it names a node.
-func (r *reader) endpoint(o *object, key, def string, ids map[string]int, names []string) string {
+func (r *reader) endpoint(o *object, key, def string, ids map[string]nodeRef, names []string) string {
 	id, ok := o.str(key)
 	if !ok {
 		if o.has(key) {

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"regexp"
 	"sort"
+	"strconv"
 	"strings"
 
 	"github.com/heatgraph/heatgraph/network/units"
@@ -201,6 +202,23 @@ func (o *object) positive(key string, kind units.Kind, need bool) (float64, bool
 		return 0, false
 	}
 	return x, ok
+}
+
+// count reads a whole number of at least least.
+func (o *object) count(key string, least int) (int, bool) {
+	s, ok := o.str(key)
+	if !ok {
+		if !o.has(key) {
+			o.missing(key, fmt.Sprintf("a whole number of at least %d", least))
+		}
+		return 0, false
+	}
+	n, err := strconv.Atoi(s)
+	if err != nil || n < least {
+		o.r.addf(o.values[key], o.field(key), "%q must be a whole number of at least %d", s, least)
+		return 0, false
+	}
+	return n, true
 }
 
 // fraction reads a number in (0, 1].

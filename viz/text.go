@@ -4,8 +4,10 @@ import (
 	"fmt"
 	"io"
 	"sort"
+	"strconv"
 	"strings"
 
+	"github.com/heatgraph/heatgraph/elements"
 	"github.com/heatgraph/heatgraph/network"
 )
 
@@ -63,6 +65,8 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 		tw.printf("%-*s  %-*s  %10.3f  %s → %s\n", idw, l.ID, kw, l.Kind, l.Heat, l.From, l.To)
 	}
 
+	writeDetails(tw, sol)
+
 	b := sol.Balance
 	tw.printf("\nenergy balance [W]\n")
 	tw.printf("  heat in                %12.4f\n", b.In)
@@ -82,6 +86,70 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 	tw.printf("\n%s\n", Verdict(sol))
 	tw.printf("\n%s\n", wrap(Caution, 100))
 	return tw.err
+}
+
+// writeDetails lists, for every link whose heat comes from a correlation,
+// the quantities behind it, so that each coefficient can be traced and
+// checked by hand.
+func writeDetails(tw *textWriter, sol *network.Solution) {
+	first := true
+	for _, l := range sol.Links {
+		var texts []string
+		var nums []string
+		for _, d := range l.Details {
+			switch {
+			case d.Text != "":
+				texts = append(texts, d.Text)
+			default:
+				nums = append(nums, detailText(d))
+			}
+		}
+		if len(texts) == 0 {
+			continue
+		}
+		if first {
+			tw.printf("\ncorrelations (each link's coefficient and what it rests on)\n")
+			first = false
+		}
+		tw.printf("  %s (%s): %s\n", l.ID, l.Kind, strings.Join(texts, "; "))
+		tw.printf("%s\n", wrapItems(nums, 94, "      "))
+	}
+}
+
+// detailText formats one numeric detail as "name value unit".
+func detailText(d elements.Detail) string {
+	name := strings.ReplaceAll(d.Name, "_", " ")
+	unit := d.Unit
+	if unit == "degC" {
+		unit = "°C"
+	}
+	v := strconv.FormatFloat(d.Value, 'g', 4, 64)
+	if unit == "" {
+		return name + " " + v
+	}
+	return name + " " + v + " " + unit
+}
+
+// wrapItems joins items with ", " into lines of at most width bytes after
+// prefix, never breaking an item.
+func wrapItems(items []string, width int, prefix string) string {
+	var b strings.Builder
+	line := 0
+	for i, it := range items {
+		switch {
+		case i == 0:
+			b.WriteString(prefix)
+		case line+2+len(it) > width:
+			b.WriteString(",\n" + prefix)
+			line = 0
+		default:
+			b.WriteString(", ")
+			line += 2
+		}
+		b.WriteString(it)
+		line += len(it)
+	}
+	return b.String()
 }
 
 // Verdict summarises the limit checks in one line.

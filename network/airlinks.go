@@ -1,0 +1,319 @@
+package network
+
+import (
+	"strings"
+
+	"github.com/heatgraph/heatgraph/elements"
+	"github.com/heatgraph/heatgraph/elements/air"
+	"github.com/heatgraph/heatgraph/elements/dual"
+	"github.com/heatgraph/heatgraph/elements/duct"
+	"github.com/heatgraph/heatgraph/network/units"
+)
+
+// airLinkKinds are the links that involve moving air.
+var airLinkKinds = []linkKind{
+	{
+		name:    "stream",
+		summary: "air carried from one node to the next at a given flow, with its heat",
+		keys:    []string{"flow", "mass_flow"},
+		parse:   parseStream,
+		ends:    []endRule{{"from", "the air's origin", airwayKinds}, {"to", "the air's destination", airwayKinds}},
+	},
+	{
+		name:    "channel",
+		summary: "forced convection from a wall to air in parallel channels or a plate-fin heat sink",
+		keys: []string{"inlet", "flow", "mass_flow", "length",
+			"fin_count", "fin_thickness", "fin_height", "base_width", "material", "conductivity",
+			"shape", "width", "height", "diameter", "count", "turbulent", "laminar_entry", "upstream_length"},
+		parse: parseChannel,
+		ends: []endRule{{"from", "the wall", solidKinds}, {"inlet", "the inlet air", airwayKinds},
+			{"to", "the outlet air", []NodeKind{Air}}},
+	},
+	{
+		name:      "natural",
+		summary:   "natural convection from a surface: vertical, facing up, facing down, or vertical fins",
+		keys:      []string{"orientation", "height", "width", "length", "area", "fin_count", "fin_thickness", "fin_height", "fin_spacing", "material", "conductivity"},
+		defaultTo: AmbientID,
+		parse:     parseNatural,
+		ends:      surfaceRules,
+	},
+	{
+		name:      "flat-plate",
+		summary:   "forced convection from a flat wall in a stream of air of given velocity",
+		keys:      []string{"velocity", "length", "width", "area"},
+		defaultTo: AmbientID,
+		parse:     parseFlatPlate,
+		ends:      surfaceRules,
+	},
+}
+
+// massFlow reads flow (a volume flow of ambient air) or mass_flow.
+func massFlow(o *object, m *Model) (float64, bool) {
+	switch o.oneOf("a volume flow of ambient air such as 12 CFM, or a mass flow such as 6 g/s", "flow", "mass_flow") {
+	case "flow":
+		q, ok := o.positive("flow", units.VolumeFlow, true)
+		if !ok {
+			return 0, false
+		}
+		// Fans and blowers are rated in volume: the air is at the
+		// ambient state where it is drawn in.
+		return q * air.Density(dual.C(m.Ambient.Temperature), m.Ambient.Pressure).V, true
+	case "mass_flow":
+		return o.positive("mass_flow", units.MassFlow, true)
+	}
+	return 0, false
+}
+
+// Stream is air carried between two nodes.
+type Stream struct {
+	MassFlow float64 // kg/s
+}
+
+func (s *Stream) element(e linkEnv) (elements.Element, error) {
+	return &elements.Stream{Up: e.from, Down: e.to, MassFlow: s.MassFlow}, nil
+}
+
+func parseStream(o *object, m *Model) LinkParams {
+	if f, ok := massFlow(o, m); ok {
+		return &Stream{MassFlow: f}
+	}
+	return nil
+}
+
+// Channel is forced convection in channels; the link runs from the wall to
+// the outlet air node, with the inlet as a third node.
+type Channel struct {
+	MassFlow float64 // kg/s
+	Geometry elements.ChannelGeometry
+	Options  duct.Options
+	Upstream float64 // length of the same channels before this segment, m
+}
+
+func (c *Channel) element(e linkEnv) (elements.Element, error) {
+	return &elements.Channel{Wall: e.from, Inlet: e.others[0], Outlet: e.to, MassFlow: c.MassFlow,
+		Geometry: c.Geometry, Options: c.Options, Upstream: c.Upstream}, nil
+}
+
+var (
+	shapes          = []string{"rectangular", "circular"}
+	turbulentModels = []string{"gnielinski", "dittus-boelter"}
+	laminarEntries  = []string{"combined", "thermal"}
+)
+
+func parseChannel(o *object, m *Model) LinkParams {
+	c := &Channel{}
+	var ok bool
+	c.MassFlow, ok = massFlow(o, m)
+	length, okL := o.positive("length", units.Length, true)
+	ok = ok && okL
+	switch {
+	case o.has("fin_count"):
+		for _, k := range []string{"shape", "width", "height", "diameter", "count"} {
+			if o.has(k) {
+				o.r.addf(o.values[k], o.field(k), "not used with fin_count (a plate-fin heat sink takes fin_count, fin_thickness, fin_height, base_width, length and the fin material)")
+				ok = false
+			}
+		}
+		n, okN := o.count("fin_count", 2)
+		t, okT := o.positive("fin_thickness", units.Length, true)
+		h, okH := o.positive("fin_height", units.Length, true)
+		w, okW := o.positive("base_width", units.Length, true)
+		k, okK := conductivity(o, m)
+		if !(ok && okN && okT && okH && okW && okK) {
+			return nil
+		}
+		g, err := elements.PlateFinSink(n, t, h, w, length, k)
+		if err != nil {
+			o.r.addf(o.values["fin_count"], o.field("fin_count"), "%v", err)
+			return nil
+		}
+		c.Geometry = g
+	default:
+		d, n, okD := passage(o, length)
+		if !(ok && okD) {
+			return nil
+		}
+		g, err := elements.Passages(d, n)
+		if err != nil {
+			o.r.addf(o.node, o.path, "%v", err)
+			return nil
+		}
+		c.Geometry = g
+	}
+	if o.has("upstream_length") {
+		u, okU := o.quantity("upstream_length", units.Length)
+		if !okU {
+			return nil
+		}
+		if u < 0 {
+			o.r.addf(o.values["upstream_length"], o.field("upstream_length"), "must not be negative (the length of the same channels before this part, e.g. 60 mm)")
+			return nil
+		}
+		c.Upstream = u
+	}
+	if s, has := o.str("turbulent"); has {
+		switch s {
+		case "gnielinski":
+			c.Options.Turbulent = duct.Gnielinski
+		case "dittus-boelter":
+			c.Options.Turbulent = duct.DittusBoelter
+		default:
+			o.r.addf(o.values["turbulent"], o.field("turbulent"), "unknown correlation %q%s (valid: %s)", s, suggest(s, turbulentModels), strings.Join(turbulentModels, ", "))
+			return nil
+		}
+	}
+	if s, has := o.str("laminar_entry"); has {
+		switch s {
+		case "combined":
+			c.Options.Laminar = duct.CombinedEntry
+		case "thermal":
+			c.Options.Laminar = duct.ThermalEntry
+		default:
+			o.r.addf(o.values["laminar_entry"], o.field("laminar_entry"), "unknown entry model %q%s (valid: %s)", s, suggest(s, laminarEntries), strings.Join(laminarEntries, ", "))
+			return nil
+		}
+	}
+	return c
+}
+
+// passage reads the cross-section of plain channels.
+func passage(o *object, length float64) (duct.Duct, int, bool) {
+	shape, has := o.str("shape")
+	if !has {
+		o.missing("shape", "rectangular (with width and height) or circular (with diameter); or describe a heat sink with fin_count")
+		return duct.Duct{}, 0, false
+	}
+	n := 1
+	okN := true
+	if o.has("count") {
+		n, okN = o.count("count", 1)
+	}
+	switch shape {
+	case "rectangular":
+		w, ok1 := o.positive("width", units.Length, true)
+		h, ok2 := o.positive("height", units.Length, true)
+		return duct.Duct{Shape: duct.Rectangular, Width: w, Height: h, Length: length}, n, ok1 && ok2 && okN
+	case "circular":
+		d, ok1 := o.positive("diameter", units.Length, true)
+		return duct.Duct{Shape: duct.Circular, Diameter: d, Length: length}, n, ok1 && okN
+	}
+	o.r.addf(o.values["shape"], o.field("shape"), "unknown shape %q%s (valid: %s)", shape, suggest(shape, shapes), strings.Join(shapes, ", "))
+	return duct.Duct{}, 0, false
+}
+
+// conductivity reads a fin material or conductivity.
+func conductivity(o *object, m *Model) (float64, bool) {
+	switch o.oneOf("the fin material, e.g. material: aluminium-6063, or conductivity: 200 W/m/K", "material", "conductivity") {
+	case "material":
+		name, _ := o.str("material")
+		mat, found := m.Materials[name]
+		if !found {
+			o.r.addf(o.values["material"], o.field("material"), "unknown material %q%s (see 'heatgraph materials' for the table, or add it under materials:)", name, suggest(name, sortedKeys(m.Materials)))
+			return 0, false
+		}
+		return mat.Conductivity, true
+	case "conductivity":
+		return o.positive("conductivity", units.Conductivity, true)
+	}
+	return 0, false
+}
+
+// Natural is natural convection from a surface.
+type Natural struct {
+	Orientation elements.Orientation
+	Area        float64
+	Length      float64
+	Fins        elements.Fins
+}
+
+func (n *Natural) element(e linkEnv) (elements.Element, error) {
+	return elements.NewNatural(e.from, e.to, n.Orientation, n.Area, n.Length, n.Fins)
+}
+
+var orientations = []string{"vertical", "facing-up", "facing-down", "fins"}
+
+func parseNatural(o *object, m *Model) LinkParams {
+	s, has := o.str("orientation")
+	if !has {
+		if !o.has("orientation") {
+			o.missing("orientation", "one of "+strings.Join(orientations, ", "))
+		}
+		return nil
+	}
+	n := &Natural{}
+	switch s {
+	case "vertical":
+		n.Orientation = elements.Vertical
+		h, ok := o.positive("height", units.Length, true)
+		a, okA := plateArea(o, h)
+		if !ok || !okA {
+			return nil
+		}
+		n.Length, n.Area = h, a
+	case "facing-up", "facing-down":
+		n.Orientation = elements.FacingUp
+		if s == "facing-down" {
+			n.Orientation = elements.FacingDown
+		}
+		l, ok1 := o.positive("length", units.Length, true)
+		w, ok2 := o.positive("width", units.Length, true)
+		if o.has("area") {
+			o.r.addf(o.values["area"], o.field("area"), "not used for a horizontal plate: its area is length × width")
+			return nil
+		}
+		if !ok1 || !ok2 {
+			return nil
+		}
+		// Characteristic length A/P (Goldstein, Sparrow & Jones 1973).
+		n.Area, n.Length = l*w, l*w/(2*(l+w))
+	case "fins":
+		n.Orientation = elements.FinArray
+		cnt, ok1 := o.count("fin_count", 2)
+		t, ok2 := o.positive("fin_thickness", units.Length, true)
+		h, ok3 := o.positive("fin_height", units.Length, true)
+		sp, ok4 := o.positive("fin_spacing", units.Length, true)
+		l, ok5 := o.positive("height", units.Length, true)
+		k, ok6 := conductivity(o, m)
+		if !(ok1 && ok2 && ok3 && ok4 && ok5 && ok6) {
+			return nil
+		}
+		n.Length = l
+		n.Fins = elements.Fins{Count: cnt, Thickness: t, Height: h, Spacing: sp, Conductivity: k}
+	default:
+		o.r.addf(o.values["orientation"], o.field("orientation"), "unknown orientation %q%s (valid: %s)", s, suggest(s, orientations), strings.Join(orientations, ", "))
+		return nil
+	}
+	return n
+}
+
+// plateArea reads the area of a plate whose height or length l is known:
+// from a width across it, or given directly.
+func plateArea(o *object, l float64) (float64, bool) {
+	switch o.oneOf("the plate's width, or its area", "width", "area") {
+	case "width":
+		w, ok := o.positive("width", units.Length, true)
+		return w * l, ok
+	case "area":
+		return o.positive("area", units.Area, true)
+	}
+	return 0, false
+}
+
+// FlatPlate is forced convection along a flat wall.
+type FlatPlate struct {
+	Velocity, Length, Area float64
+}
+
+func (f *FlatPlate) element(e linkEnv) (elements.Element, error) {
+	return elements.NewFlatPlate(e.from, e.to, f.Velocity, f.Length, f.Area)
+}
+
+func parseFlatPlate(o *object, _ *Model) LinkParams {
+	v, ok1 := o.positive("velocity", units.Velocity, true)
+	l, ok2 := o.positive("length", units.Length, true)
+	a, ok3 := plateArea(o, l)
+	if !ok1 || !ok2 || !ok3 {
+		return nil
+	}
+	return &FlatPlate{Velocity: v, Length: l, Area: a}
+}

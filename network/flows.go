@@ -1,0 +1,44 @@
+package network
+
+import (
+	"fmt"
+	"math"
+)
+
+// airflow returns the air a link carries: from the node up to the node
+// down at mdot kg/s. ok is false for links that carry no air.
+func (l *LinkSpec) airflow() (up, down string, mdot float64, ok bool) {
+	switch p := l.Params.(type) {
+	case *Stream:
+		return l.From, l.To, p.MassFlow, true
+	case *Channel:
+		return l.Others[0], l.To, p.MassFlow, true
+	}
+	return "", "", 0, false
+}
+
+// unbalancedAir reports every air node that does not pass on the air it
+// receives: with given flows, mass must be conserved at each air node for
+// its energy balance to mean anything.
+func (m *Model) unbalancedAir() Problems {
+	in, out := map[string]float64{}, map[string]float64{}
+	for i := range m.Links {
+		if up, down, f, ok := m.Links[i].airflow(); ok {
+			out[up] += f
+			in[down] += f
+		}
+	}
+	var ps Problems
+	for _, n := range m.Nodes {
+		if n.Kind != Air {
+			continue
+		}
+		a, b := in[n.ID], out[n.ID]
+		if math.Abs(a-b) <= 1e-6*math.Max(a, b) {
+			continue
+		}
+		ps = append(ps, Problem{File: m.File, Line: n.Line, Field: "nodes[" + n.ID + "]",
+			Message: fmt.Sprintf("air arrives at %.4g g/s but leaves at %.4g g/s; an air node must pass on the air it receives (check the flows of the stream and channel links into and out of it)", a*1e3, b*1e3)})
+	}
+	return ps
+}
