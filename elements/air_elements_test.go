@@ -304,3 +304,22 @@ func TestChannelSegmentsAddUp(t *testing.T) {
 	}
 	checkJacobianEnv(t, "rear segment", rear, s.T)
 }
+
+// Isothermal fins bound the finned channel from above: η_f = 1 gives the
+// largest effective area (definition of fin efficiency, Incropera et al.
+// §3.6.4).
+func TestIsothermalFins(t *testing.T) {
+	g := plateFin(t)
+	iso := g
+	iso.IsothermalFins = true
+	s := &State{T: []float64{330, 300, 310}, Env: airEnv}
+	real := &Channel{Wall: 0, Inlet: 1, Outlet: 2, MassFlow: 3e-3, Geometry: g}
+	ideal := &Channel{Wall: 0, Inlet: 1, Outlet: 2, MassFlow: 3e-3, Geometry: iso}
+	if detail(t, ideal.Report(s), "fin_efficiency").Value != 1 {
+		t.Error("isothermal fins must report an efficiency of 1")
+	}
+	if !(detail(t, ideal.Report(s), "NTU").Value > detail(t, real.Report(s), "NTU").Value) {
+		t.Error("isothermal fins must transfer more than real ones")
+	}
+	checkJacobianEnv(t, "isothermal fins", ideal, s.T)
+}

@@ -25,6 +25,10 @@ type ChannelGeometry struct {
 	// FinConductivity, FinThickness and FinHeight describe the fins for
 	// their efficiency (W/(m K), m, m); unused when FinArea is zero.
 	FinConductivity, FinThickness, FinHeight float64
+	// IsothermalFins takes the fins to be at the wall temperature
+	// throughout (efficiency 1), as for short, thick or copper fins, or to
+	// bound the result.
+	IsothermalFins bool
 	// KEntry and KExit are the minor-loss coefficients of the inlet and
 	// outlet, on the channel velocity.
 	KEntry, KExit float64
@@ -149,8 +153,10 @@ func (c *Channel) eval(s *State, seed bool) (cs channelState, tm dual.Num) {
 	aEff := dual.C(g.PrimeArea)
 	eta := dual.C(1)
 	if g.FinArea > 0 {
-		// An adiabatic fin tip: L_c = H, hence the length H − t/2.
-		eta = convection.FinEfficiency(h, g.FinConductivity, g.FinThickness, g.FinHeight-g.FinThickness/2)
+		if !g.IsothermalFins {
+			// An adiabatic fin tip: L_c = H, hence the length H − t/2.
+			eta = convection.FinEfficiency(h, g.FinConductivity, g.FinThickness, g.FinHeight-g.FinThickness/2)
+		}
 		aEff = aEff.Add(eta.Scale(g.FinArea))
 	}
 	ntu := h.Mul(aEff).Scale(1 / (c.MassFlow * s.Env.AirCp))
@@ -248,7 +254,7 @@ func (c *Channel) Report(s *State) Report {
 	var warn []string
 	warn = append(warn, cs.flow.Warnings...)
 	warn = append(warn, air.Check(tm.V, s.Env.Pressure)...)
-	if g.FinArea > 0 {
+	if g.FinArea > 0 && !g.IsothermalFins {
 		bi := cs.h.V * g.FinThickness / (2 * g.FinConductivity)
 		if w := convection.FinBi.Check(bi); w != "" {
 			warn = append(warn, "fin efficiency: "+w+" (the one-dimensional fin model needs a thin, conductive fin)")

@@ -23,7 +23,7 @@ var airLinkKinds = []linkKind{
 		name:    "channel",
 		summary: "forced convection from a wall to air in parallel channels or a plate-fin heat sink",
 		keys: []string{"inlet", "flow", "mass_flow", "length",
-			"fin_count", "fin_thickness", "fin_height", "base_width", "material", "conductivity",
+			"fin_count", "fin_thickness", "fin_height", "base_width", "material", "conductivity", "isothermal_fins",
 			"shape", "width", "height", "diameter", "count", "turbulent", "laminar_entry", "upstream_length"},
 		parse: parseChannel,
 		ends: []endRule{{"from", "the wall", solidKinds}, {"inlet", "the inlet air", airwayKinds},
@@ -127,8 +127,17 @@ func parseChannel(o *object, m *Model) LinkParams {
 			o.r.addf(o.values["fin_count"], o.field("fin_count"), "%v", err)
 			return nil
 		}
+		if g.IsothermalFins, ok = o.flag("isothermal_fins"); !ok {
+			return nil
+		}
 		c.Geometry = g
 	default:
+		for _, k := range []string{"fin_thickness", "fin_height", "base_width", "material", "conductivity", "isothermal_fins"} {
+			if o.has(k) {
+				o.r.addf(o.values[k], o.field(k), "describes fins, but the channel has no fin_count (plain channels take shape, width and height or diameter, count and length)")
+				ok = false
+			}
+		}
 		d, n, okD := passage(o, length)
 		if !(ok && okD) {
 			return nil

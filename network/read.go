@@ -204,6 +204,22 @@ func (o *object) positive(key string, kind units.Kind, need bool) (float64, bool
 	return x, ok
 }
 
+// flag reads an optional true/false value (false when absent).
+func (o *object) flag(key string) (value, ok bool) {
+	s, has := o.str(key)
+	if !has {
+		return false, !o.has(key)
+	}
+	switch s {
+	case "true", "yes":
+		return true, true
+	case "false", "no":
+		return false, true
+	}
+	o.r.addf(o.values[key], o.field(key), "%q is not true or false", s)
+	return false, false
+}
+
 // count reads a whole number of at least least.
 func (o *object) count(key string, least int) (int, bool) {
 	s, ok := o.str(key)
