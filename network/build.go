@@ -31,6 +31,7 @@ type Link struct {
 	ID       string
 	Kind     string // a link kind, or "junction-case"/"junction-board" for component legs
 	From, To int    // node indices
+	Inlet    int    // node index of a channel's inlet air, −1 for other links
 	Note     string
 	Line     int
 	Element  elements.Element
@@ -102,7 +103,7 @@ func Build(m *Model) (*Network, error) {
 				problems = append(problems, Problem{File: m.File, Line: c.Line, Field: "components[" + c.ID + "]", Message: err.Error()})
 				continue
 			}
-			net.Links = append(net.Links, Link{ID: c.ID + leg.suffix, Kind: leg.kind, From: j, To: net.Index[leg.end], Line: c.Line, Element: el})
+			net.Links = append(net.Links, Link{ID: c.ID + leg.suffix, Kind: leg.kind, From: j, To: net.Index[leg.end], Inlet: -1, Line: c.Line, Element: el})
 		}
 	}
 	for _, l := range m.Links {
@@ -116,7 +117,11 @@ func Build(m *Model) (*Network, error) {
 			problems = append(problems, Problem{File: m.File, Line: l.Line, Field: "links[" + l.ID + "]", Message: err.Error()})
 			continue
 		}
-		net.Links = append(net.Links, Link{ID: l.ID, Kind: l.Kind, From: a, To: b, Note: l.Note, Line: l.Line, Element: el})
+		inlet := -1
+		if l.Kind == "channel" {
+			inlet = others[0]
+		}
+		net.Links = append(net.Links, Link{ID: l.ID, Kind: l.Kind, From: a, To: b, Inlet: inlet, Note: l.Note, Line: l.Line, Element: el})
 	}
 	for _, e := range m.Enclosures {
 		links, err := net.enclosureLinks(e)

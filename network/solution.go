@@ -37,6 +37,11 @@ type LinkResult struct {
 	Kind     string
 	From, To string
 	Heat     float64 // W, positive from From to To
+	// Inlet and Carried describe a channel's air: the node it comes from
+	// and the heat it brings to the outlet (To) above ambient, W. Inlet is
+	// "" for other links.
+	Inlet   string
+	Carried float64
 	Details  []elements.Detail
 	Warnings []string
 	Line     int
@@ -98,6 +103,9 @@ func (net *Network) Solution(x []float64) *Solution {
 		clear(rec.heat)
 		l.Element.Stamp(state, rec)
 		lr := LinkResult{ID: l.ID, Kind: l.Kind, From: net.Nodes[l.From].ID, To: net.Nodes[l.To].ID, Heat: -rec.heat[l.From], Line: l.Line}
+		if l.Inlet >= 0 {
+			lr.Inlet, lr.Carried = net.Nodes[l.Inlet].ID, -rec.heat[l.Inlet]
+		}
 		if rep, ok := l.Element.(elements.Reporter); ok {
 			report := rep.Report(state)
 			lr.Details, lr.Warnings = report.Details, report.Warnings

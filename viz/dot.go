@@ -83,7 +83,7 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 
 	qMax := 0.0
 	for _, l := range sol.Links {
-		qMax = math.Max(qMax, math.Abs(l.Heat))
+		qMax = math.Max(qMax, math.Max(math.Abs(l.Heat), math.Abs(l.Carried)))
 	}
 	for _, l := range sol.Links {
 		from, to, heat := l.From, l.To, l.Heat
@@ -106,7 +106,25 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 		if qMax > 0 && heat < 1e-3*qMax {
 			attrs["style"] = "dashed"
 		}
+		if l.Kind == "stream" {
+			attrs["color"] = q(airColour)
+			attrs["fontcolor"] = q(airColour)
+		}
 		d.check(g.AddEdge(q(from), q(to), true, attrs))
+		if l.Inlet != "" && l.Carried != 0 {
+			// The air a channel passes on carries heat of its own.
+			c := math.Abs(l.Carried)
+			d.check(g.AddEdge(q(l.Inlet), q(l.To), true, map[string]string{
+				"label":     q(fmt.Sprintf("%.3g W", c)),
+				"tooltip":   q(fmt.Sprintf("%s: air from %s", l.ID, l.Inlet)),
+				"penwidth":  strconv.FormatFloat(0.8+5.2*c/qMax, 'f', 2, 64),
+				"arrowsize": strconv.FormatFloat(0.5+0.1*(0.8+5.2*c/qMax), 'f', 2, 64),
+				"color":     q(airColour),
+				"fontcolor": q(airColour),
+				"fontname":  q("Helvetica"),
+				"fontsize":  "9",
+			}))
+		}
 	}
 	d.legend(colouring, tMin, tMax)
 	if d.err != nil {
@@ -149,8 +167,11 @@ func (d *dotBuilder) legend(c Colouring, tMin, tMax float64) {
 	}
 	cell(fixedFill, "fixed temperature")
 	label := fmt.Sprintf(`<<table border="0" cellborder="0" cellspacing="2"><tr><td colspan="2"><b>%s</b></td></tr>%s`+
+		`<tr><td colspan="2" align="left">box: solid; octagon: junction;</td></tr>`+
+		`<tr><td colspan="2" align="left">ellipse: air; cylinder: fixed</td></tr>`+
 		`<tr><td colspan="2" align="left">arrows: the way heat flows;</td></tr>`+
-		`<tr><td colspan="2" align="left">width grows with watts</td></tr></table>>`,
+		`<tr><td colspan="2" align="left">width grows with watts;</td></tr>`+
+		`<tr><td colspan="2" align="left"><font color="`+airColour+`">blue: heat carried by moving air</font></td></tr></table>>`,
 		html.EscapeString("colour: "+string(c)), rows.String())
 	const cluster = "cluster_legend"
 	d.check(d.g.AddSubGraph(d.name, cluster, map[string]string{"label": q("legend"), "style": q("rounded"), "color": q("#9a9a9a"), "fontname": q("Helvetica"), "fontsize": "10"}))
@@ -180,6 +201,8 @@ func nodeShape(k network.NodeKind) string {
 		return "cylinder"
 	case network.Junction:
 		return "octagon"
+	case network.Air:
+		return "ellipse"
 	}
 	return "box"
 }

@@ -56,13 +56,17 @@ type NodeReport struct {
 	Status       string   `json:"status,omitempty"`
 }
 
-// LinkReport is one link's result. HeatW is positive from From to To.
+// LinkReport is one link's result. HeatW is positive from From to To. A
+// channel also names its Inlet air node and the heat CarriedW that the air
+// brings from it to the outlet To, above ambient.
 type LinkReport struct {
 	ID       string         `json:"id"`
 	Kind     string         `json:"kind"`
 	From     string         `json:"from"`
 	To       string         `json:"to"`
 	HeatW    float64        `json:"heat_W"`
+	Inlet    string         `json:"inlet,omitempty"`
+	CarriedW *float64       `json:"carried_W,omitempty"`
 	Details  []DetailReport `json:"details,omitempty"`
 	Warnings []string       `json:"warnings,omitempty"`
 }
@@ -125,6 +129,10 @@ func NewReport(m *network.Model, sol *network.Solution, run Run) *Report {
 	}
 	for _, l := range sol.Links {
 		lr := LinkReport{ID: l.ID, Kind: l.Kind, From: l.From, To: l.To, HeatW: l.Heat, Warnings: l.Warnings}
+		if l.Inlet != "" {
+			c := l.Carried
+			lr.Inlet, lr.CarriedW = l.Inlet, &c
+		}
 		for _, d := range l.Details {
 			dr := DetailReport{Name: d.Name, Unit: d.Unit, Text: d.Text}
 			if d.Text == "" {

@@ -70,6 +70,7 @@ var (
 	noLimitFill = rgb{0xf2, 0xf0, 0xeb} // warm paper, for nodes without a limit
 	fixedFill   = rgb{0xd6, 0xe3, 0xf0} // cool blue-grey, for given temperatures
 	edgeColour  = "#3d4852"
+	airColour   = "#3b6ea5" // heat carried by moving air
 )
 
 // textOn returns a readable text colour on fill c.

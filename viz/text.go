@@ -3,6 +3,7 @@ package viz
 import (
 	"fmt"
 	"io"
+	"math"
 	"sort"
 	"strconv"
 	"strings"
@@ -62,7 +63,11 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 	}
 	tw.printf("\n%-*s  %-*s  %10s  %s\n", idw, "link", kw, "kind", "heat [W]", "from → to (positive heat flows this way)")
 	for _, l := range sol.Links {
-		tw.printf("%-*s  %-*s  %10.3f  %s → %s\n", idw, l.ID, kw, l.Kind, l.Heat, l.From, l.To)
+		tw.printf("%-*s  %-*s  %10.3f  %s → %s", idw, l.ID, kw, l.Kind, noNegZero(l.Heat, 3), l.From, l.To)
+		if l.Inlet != "" {
+			tw.printf("; the air from %s brings %.3f", l.Inlet, noNegZero(l.Carried, 3))
+		}
+		tw.printf("\n")
 	}
 
 	writeDetails(tw, sol)
@@ -150,6 +155,15 @@ func wrapItems(items []string, width int, prefix string) string {
 		line += len(it)
 	}
 	return b.String()
+}
+
+// noNegZero returns x, or zero when x would print as -0 with the given
+// number of decimals.
+func noNegZero(x float64, decimals int) float64 {
+	if math.Abs(x) < 0.5*math.Pow(10, -float64(decimals)) {
+		return 0
+	}
+	return x
 }
 
 // Verdict summarises the limit checks in one line.

@@ -131,3 +131,37 @@ func TestRenderFormats(t *testing.T) {
 	assert.NoError(t, err)
 	assert.Equal(t, FormatSVG, f)
 }
+
+// A channel's air carries the heat picked up upstream; the diagram must
+// show that path, or the heat would seem to vanish at the air node.
+func TestDOTShowsCarriedAir(t *testing.T) {
+	m, err := network.Parse("duct.yaml", []byte(`
+ambient: {temperature: 20 degC}
+nodes:
+  - {id: a, power: 10 W}
+  - {id: b, power: 5 W}
+  - {id: mid, kind: air}
+  - {id: out, kind: air}
+links:
+  - {kind: channel, from: a, inlet: ambient, to: mid, flow: 4 CFM, shape: circular, diameter: 6 mm, count: 8, length: 80 mm}
+  - {id: second, kind: channel, from: b, inlet: mid, to: out, flow: 4 CFM, shape: circular, diameter: 6 mm, count: 8, length: 80 mm}
+  - {kind: stream, from: out, to: ambient, flow: 4 CFM}
+`))
+	require.NoError(t, err)
+	net, err := network.Build(m)
+	require.NoError(t, err)
+	p := net.Steady()
+	r := solve.Newton(p, p.InitialGuess(), solve.Settings{})
+	require.True(t, r.Reason.Converged())
+	sol := net.Solution(r.X)
+	for _, l := range sol.Links {
+		if l.ID == "second" {
+			assert.Equal(t, "mid", l.Inlet)
+			assert.InDelta(t, 10, l.Carried, 1e-9, "the air brings the first block's 10 W")
+		}
+	}
+	dot, err := DOT(sol, ColourMargin)
+	require.NoError(t, err)
+	assert.Contains(t, dot, `"mid"->"out"`)
+	assert.Contains(t, dot, `label="10 W"`)
+}
