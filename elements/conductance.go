@@ -60,13 +60,7 @@ func (c *Conductance) Nodes() []int { return []int{c.A, c.B} }
 
 // Stamp adds G·(T_B − T_A) into A and the opposite into B.
 func (c *Conductance) Stamp(s *State, out Stamper) {
-	q := c.G * (s.T[c.A] - s.T[c.B]) // from A to B
-	out.AddHeat(c.A, -q)
-	out.AddHeat(c.B, q)
-	out.AddDeriv(c.A, c.A, -c.G)
-	out.AddDeriv(c.A, c.B, c.G)
-	out.AddDeriv(c.B, c.A, c.G)
-	out.AddDeriv(c.B, c.B, -c.G)
+	stampPair(out, c.A, c.B, c.G*(s.T[c.A]-s.T[c.B]), c.G, -c.G)
 }
 
 // Report gives the conductance and its resistance.

@@ -80,3 +80,14 @@ type Source interface {
 	// Power returns the heat the element puts in at s, W.
 	Power(s *State) float64
 }
+
+// stampPair stamps a heat flow q from node a to node b, with its
+// derivatives dqa = ∂q/∂T_a and dqb = ∂q/∂T_b: every two-node link is this.
+func stampPair(out Stamper, a, b int, q, dqa, dqb float64) {
+	out.AddHeat(a, -q)
+	out.AddHeat(b, q)
+	out.AddDeriv(a, a, -dqa)
+	out.AddDeriv(a, b, -dqb)
+	out.AddDeriv(b, a, dqa)
+	out.AddDeriv(b, b, dqb)
+}

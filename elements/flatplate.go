@@ -53,12 +53,7 @@ func (f *FlatPlate) Stamp(s *State, out Stamper) {
 	q := h.V * f.Area * dT
 	dqs := f.Area * (h.V + h.D*dT/2)
 	dqa := f.Area * (-h.V + h.D*dT/2)
-	out.AddHeat(f.Surface, -q)
-	out.AddHeat(f.Air, q)
-	out.AddDeriv(f.Surface, f.Surface, -dqs)
-	out.AddDeriv(f.Surface, f.Air, -dqa)
-	out.AddDeriv(f.Air, f.Surface, dqs)
-	out.AddDeriv(f.Air, f.Air, dqa)
+	stampPair(out, f.Surface, f.Air, q, dqs, dqa)
 }
 
 // Report gives Re, Nu, h, the regime and warnings outside the range.

@@ -176,12 +176,7 @@ func (n *Natural) Stamp(s *State, out Stamper) {
 	q := bySurface.V * dT
 	dqs := bySurface.V + bySurface.D*dT
 	dqa := -bySurface.V + byAir.D*dT
-	out.AddHeat(n.Surface, -q)
-	out.AddHeat(n.Air, q)
-	out.AddDeriv(n.Surface, n.Surface, -dqs)
-	out.AddDeriv(n.Surface, n.Air, -dqa)
-	out.AddDeriv(n.Air, n.Surface, dqs)
-	out.AddDeriv(n.Air, n.Air, dqa)
+	stampPair(out, n.Surface, n.Air, q, dqs, dqa)
 }
 
 // Report gives the correlation, Ra (El for fin arrays), Nu, h and the film

@@ -83,12 +83,7 @@ func (r *Radiation) Stamp(s *State, out Stamper) {
 	q := StefanBoltzmann * r.S * (ta2*ta2 - tb2*tb2)
 	da := 4 * StefanBoltzmann * r.S * ta2 * ta
 	db := 4 * StefanBoltzmann * r.S * tb2 * tb
-	out.AddHeat(r.A, -q)
-	out.AddHeat(r.B, q)
-	out.AddDeriv(r.A, r.A, -da)
-	out.AddDeriv(r.A, r.B, db)
-	out.AddDeriv(r.B, r.A, da)
-	out.AddDeriv(r.B, r.B, -db)
+	stampPair(out, r.A, r.B, q, da, -db)
 }
 
 // Report gives the exchange area and the radiative heat transfer

@@ -23,11 +23,7 @@ func (s *Stream) Nodes() []int { return []int{s.Up, s.Down} }
 // Stamp moves the enthalpy from Up to Down.
 func (s *Stream) Stamp(st *State, out Stamper) {
 	c := s.MassFlow * st.Env.AirCp
-	h := c * (st.T[s.Up] - st.Env.AmbientT)
-	out.AddHeat(s.Up, -h)
-	out.AddHeat(s.Down, h)
-	out.AddDeriv(s.Up, s.Up, -c)
-	out.AddDeriv(s.Down, s.Up, c)
+	stampPair(out, s.Up, s.Down, c*(st.T[s.Up]-st.Env.AmbientT), c, 0)
 }
 
 // Report gives the mass flow, the capacity rate ṁc_p and the air

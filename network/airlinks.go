@@ -94,6 +94,8 @@ func (c *Channel) element(e linkEnv) (elements.Element, error) {
 		Geometry: c.Geometry, Options: c.Options, Upstream: c.Upstream}, nil
 }
 
+const finHint = "the fin material, e.g. material: aluminium-6063, or conductivity: 200 W/m/K"
+
 var (
 	shapes          = []string{"rectangular", "circular"}
 	turbulentModels = []string{"gnielinski", "dittus-boelter"}
@@ -118,7 +120,7 @@ func parseChannel(o *object, m *Model) LinkParams {
 		t, okT := o.positive("fin_thickness", units.Length, true)
 		h, okH := o.positive("fin_height", units.Length, true)
 		w, okW := o.positive("base_width", units.Length, true)
-		k, okK := conductivity(o, m)
+		k, okK := conductivity(o, m, finHint)
 		if !(ok && okN && okT && okH && okW && okK) {
 			return nil
 		}
@@ -160,36 +162,28 @@ func parseChannel(o *object, m *Model) LinkParams {
 		}
 		c.Upstream = u
 	}
-	if s, has := o.str("turbulent"); has {
-		switch s {
-		case "gnielinski":
-			c.Options.Turbulent = duct.Gnielinski
-		case "dittus-boelter":
-			c.Options.Turbulent = duct.DittusBoelter
-		default:
-			o.r.addf(o.values["turbulent"], o.field("turbulent"), "unknown correlation %q%s (valid: %s)", s, suggest(s, turbulentModels), strings.Join(turbulentModels, ", "))
-			return nil
-		}
+	turb, ok1 := o.choice("turbulent", "correlation", turbulentModels)
+	entry, ok2 := o.choice("laminar_entry", "entry model", laminarEntries)
+	if !ok1 || !ok2 {
+		return nil
 	}
-	if s, has := o.str("laminar_entry"); has {
-		switch s {
-		case "combined":
-			c.Options.Laminar = duct.CombinedEntry
-		case "thermal":
-			c.Options.Laminar = duct.ThermalEntry
-		default:
-			o.r.addf(o.values["laminar_entry"], o.field("laminar_entry"), "unknown entry model %q%s (valid: %s)", s, suggest(s, laminarEntries), strings.Join(laminarEntries, ", "))
-			return nil
-		}
+	if turb == "dittus-boelter" {
+		c.Options.Turbulent = duct.DittusBoelter
+	}
+	if entry == "thermal" {
+		c.Options.Laminar = duct.ThermalEntry
 	}
 	return c
 }
 
 // passage reads the cross-section of plain channels.
 func passage(o *object, length float64) (duct.Duct, int, bool) {
-	shape, has := o.str("shape")
-	if !has {
+	if !o.has("shape") {
 		o.missing("shape", "rectangular (with width and height) or circular (with diameter); or describe a heat sink with fin_count")
+		return duct.Duct{}, 0, false
+	}
+	shape, okS := o.choice("shape", "shape", shapes)
+	if !okS {
 		return duct.Duct{}, 0, false
 	}
 	n := 1
@@ -206,13 +200,13 @@ func passage(o *object, length float64) (duct.Duct, int, bool) {
 		d, ok1 := o.positive("diameter", units.Length, true)
 		return duct.Duct{Shape: duct.Circular, Diameter: d, Length: length}, n, ok1 && okN
 	}
-	o.r.addf(o.values["shape"], o.field("shape"), "unknown shape %q%s (valid: %s)", shape, suggest(shape, shapes), strings.Join(shapes, ", "))
 	return duct.Duct{}, 0, false
 }
 
-// conductivity reads a fin material or conductivity.
-func conductivity(o *object, m *Model) (float64, bool) {
-	switch o.oneOf("the fin material, e.g. material: aluminium-6063, or conductivity: 200 W/m/K", "material", "conductivity") {
+// conductivity reads a material name or a conductivity; hint says what
+// the material is for.
+func conductivity(o *object, m *Model, hint string) (float64, bool) {
+	switch o.oneOf(hint, "material", "conductivity") {
 	case "material":
 		name, _ := o.str("material")
 		mat, found := m.Materials[name]
@@ -242,13 +236,11 @@ func (n *Natural) element(e linkEnv) (elements.Element, error) {
 var orientations = []string{"vertical", "facing-up", "facing-down", "fins"}
 
 func parseNatural(o *object, m *Model) LinkParams {
-	s, has := o.str("orientation")
-	if !has {
-		if !o.has("orientation") {
-			o.missing("orientation", "one of "+strings.Join(orientations, ", "))
-		}
+	if !o.has("orientation") {
+		o.missing("orientation", "one of "+strings.Join(orientations, ", "))
 		return nil
 	}
+	s, _ := o.choice("orientation", "orientation", orientations)
 	n := &Natural{}
 	switch s {
 	case "vertical":
@@ -282,14 +274,13 @@ func parseNatural(o *object, m *Model) LinkParams {
 		h, ok3 := o.positive("fin_height", units.Length, true)
 		sp, ok4 := o.positive("fin_spacing", units.Length, true)
 		l, ok5 := o.positive("height", units.Length, true)
-		k, ok6 := conductivity(o, m)
+		k, ok6 := conductivity(o, m, finHint)
 		if !(ok1 && ok2 && ok3 && ok4 && ok5 && ok6) {
 			return nil
 		}
 		n.Length = l
 		n.Fins = elements.Fins{Count: cnt, Thickness: t, Height: h, Spacing: sp, Conductivity: k}
 	default:
-		o.r.addf(o.values["orientation"], o.field("orientation"), "unknown orientation %q%s (valid: %s)", s, suggest(s, orientations), strings.Join(orientations, ", "))
 		return nil
 	}
 	return n

@@ -140,21 +140,9 @@ func (c *Conduction) element(e linkEnv) (elements.Element, error) {
 
 func parseConduction(o *object, m *Model) LinkParams {
 	c := &Conduction{}
-	ok := true
-	switch o.oneOf("a material name from the table or a conductivity such as 0.3 W/m/K", "material", "conductivity") {
-	case "material":
-		name, _ := o.str("material")
-		mat, found := m.Materials[name]
-		if !found {
-			o.r.addf(o.values["material"], o.field("material"), "unknown material %q%s (see 'heatgraph materials' for the table, or add it under materials:)", name, suggest(name, sortedKeys(m.Materials)))
-			ok = false
-		}
-		c.Material, c.Conductivity = name, mat.Conductivity
-	case "conductivity":
-		c.Conductivity, ok = o.positive("conductivity", units.Conductivity, true)
-	default:
-		ok = false
-	}
+	var ok bool
+	c.Conductivity, ok = conductivity(o, m, "a material name from the table or a conductivity such as 0.3 W/m/K")
+	c.Material, _ = o.str("material")
 	var okA, okL bool
 	c.Area, okA = o.positive("area", units.Area, true)
 	switch o.oneOf("the slab thickness or bar length along the heat flow, e.g. 1.6 mm", "thickness", "length") {

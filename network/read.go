@@ -204,6 +204,23 @@ func (o *object) positive(key string, kind units.Kind, need bool) (float64, bool
 	return x, ok
 }
 
+// choice reads an optional word that must be one of valid; it returns ""
+// when the key is absent, and ok false (after reporting) when the word is
+// not valid.
+func (o *object) choice(key, what string, valid []string) (string, bool) {
+	s, has := o.str(key)
+	if !has {
+		return "", !o.has(key)
+	}
+	for _, v := range valid {
+		if s == v {
+			return s, true
+		}
+	}
+	o.r.addf(o.values[key], o.field(key), "unknown %s %q%s (valid: %s)", what, s, suggest(s, valid), strings.Join(valid, ", "))
+	return "", false
+}
+
 // flag reads an optional true/false value (false when absent).
 func (o *object) flag(key string) (value, ok bool) {
 	s, has := o.str(key)

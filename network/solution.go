@@ -40,8 +40,8 @@ type LinkResult struct {
 	// Inlet and Carried describe a channel's air: the node it comes from
 	// and the heat it brings to the outlet (To) above ambient, W. Inlet is
 	// "" for other links.
-	Inlet   string
-	Carried float64
+	Inlet    string
+	Carried  float64
 	Details  []elements.Detail
 	Warnings []string
 	Line     int
