@@ -168,3 +168,18 @@ func TestExamplesSolve(t *testing.T) {
 		}
 	}
 }
+
+// At the usual start, every node at ambient, natural convection has zero
+// slope (h ∝ ΔT^¼ for a horizontal plate); the solve must still find the
+// balance P = h·A·ΔT.
+func TestNaturalFromAmbientStart(t *testing.T) {
+	sol := solveModel(t, "lid", `
+ambient: {temperature: 25 degC}
+nodes:
+  - {id: lid, power: 5 W}
+links:
+  - {id: up, kind: natural, from: lid, orientation: facing-up, length: 200 mm, width: 150 mm}
+`)
+	h := detailOf(t, sol, "up", "h")
+	near(t, "heat at the solution", h*0.03*(nodeT(t, sol, "lid")-298.15), 5, 1e-9)
+}

@@ -176,3 +176,24 @@ func TestNewtonEmpty(t *testing.T) {
 		t.Errorf("empty problem: %v", r.Reason)
 	}
 }
+
+// A dissipation with zero slope at the start, q = x^(5/4) as in laminar
+// natural convection (h ∝ ΔT^¼), makes the first Jacobian singular; the
+// pseudo-transient step must get the iteration going. Root of
+// 8 − x^(5/4): x = 8^(4/5) = 5.278 (hand calculation).
+func TestNewtonZeroSlopeStart(t *testing.T) {
+	p := &funcProblem{n: 1, scale: 8,
+		f: func(x, f []float64) error {
+			f[0] = 8 - math.Pow(math.Max(x[0], 0), 1.25)
+			return nil
+		},
+		jac: func(x []float64, j [][]float64) { j[0][0] = -1.25 * math.Pow(math.Max(x[0], 0), 0.25) },
+	}
+	r := Newton(p, []float64{0}, Settings{})
+	if r.Reason != Converged {
+		t.Fatalf("reason %v after %d iterations", r.Reason, r.Iterations)
+	}
+	if want := math.Pow(8, 0.8); math.Abs(r.X[0]-want) > 1e-9 {
+		t.Errorf("x = %.12g, want %.12g", r.X[0], want)
+	}
+}

@@ -21,6 +21,10 @@ type Settings struct {
 	// (K for temperatures); longer Newton steps are scaled down. Default
 	// 200.
 	MaxChange float64
+	// PseudoStep is the change of the unknowns (K for temperatures) that
+	// a pseudo-transient step aims at when the Jacobian is singular; see
+	// Newton. Default 10.
+	PseudoStep float64
 	// Linear solves the Newton systems. Default NewDenseLU().
 	Linear LinearSolver
 	// Monitor, if not nil, is called after every iteration.
@@ -35,6 +39,7 @@ const (
 	DefaultArmijo            = 1e-4
 	DefaultMinStep           = 1e-8
 	DefaultMaxChange         = 200
+	DefaultPseudoStep        = 10
 )
 
 // withDefaults returns s with every zero field replaced by its default.
@@ -56,6 +61,9 @@ func (s Settings) withDefaults() Settings {
 	}
 	if s.MaxChange <= 0 {
 		s.MaxChange = DefaultMaxChange
+	}
+	if s.PseudoStep <= 0 {
+		s.PseudoStep = DefaultPseudoStep
 	}
 	if s.Linear == nil {
 		s.Linear = NewDenseLU()
