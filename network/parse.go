@@ -2,6 +2,7 @@ package network
 
 import (
 	"bytes"
+	"errors"
 	"fmt"
 	"os"
 	"regexp"
@@ -36,18 +37,10 @@ func readError(err error) string {
 		return "permission denied"
 	}
 	var pe *os.PathError
-	if ok := asPathError(err, &pe); ok {
+	if errors.As(err, &pe) {
 		return pe.Err.Error()
 	}
 	return err.Error()
-}
-
-func asPathError(err error, target **os.PathError) bool {
-	pe, ok := err.(*os.PathError)
-	if ok {
-		*target = pe
-	}
-	return ok
 }
 
 // Parse reads a model from data; file names it in messages.
@@ -100,7 +93,7 @@ func Parse(file string, data []byte) (*Model, error) {
 	if len(m.Nodes) == 0 && len(m.Components) == 0 && len(r.problems) == before {
 		r.addf(top.node, "nodes", "the model has no nodes (add a nodes: list with at least one solid node)")
 	}
-	r.resolveComponents(top, m, ids)
+	r.resolveComponents(m, ids)
 	if n, ok := top.values["links"]; ok {
 		m.Links = r.readLinks(n, m, ids)
 	}
@@ -296,7 +289,7 @@ func (r *reader) readComponents(n *yaml.Node, ids map[string]nodeRef) []Componen
 }
 
 // resolveComponents checks that components name existing nodes.
-func (r *reader) resolveComponents(top *object, m *Model, ids map[string]nodeRef) {
+func (r *reader) resolveComponents(m *Model, ids map[string]nodeRef) {
 	names := sortedKeys(ids)
 	for _, c := range m.Components {
 		for _, end := range []struct{ key, id string }{{"case", c.Case}, {"board", c.Board}} {
@@ -310,6 +303,10 @@ func (r *reader) resolveComponents(top *object, m *Model, ids map[string]nodeRef
 			} else if end.id == c.ID {
 				r.problems = append(r.problems, Problem{File: r.file, Line: c.Line, Field: "components[" + c.ID + "]." + end.key,
 					Message: "a component cannot be its own case or board node"})
+			} else if k := ids[end.id].kind; k == Air {
+				r.broken = true
+				r.problems = append(r.problems, Problem{File: r.file, Line: c.Line, Field: "components[" + c.ID + "]." + end.key,
+					Message: fmt.Sprintf("%q is an air node; a component's %s must be a solid or fixed node (link the part to the air with a convection link instead)", end.id, end.key)})
 			}
 		}
 	}
