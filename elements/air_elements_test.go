@@ -70,8 +70,8 @@ func TestPlateFinGeometry(t *testing.T) {
 	if g.Count != 11 || math.Abs(g.Duct.Width-gap) > 1e-15 {
 		t.Errorf("channels %d of %g m, want 11 of %g", g.Count, g.Duct.Width, gap)
 	}
-	// Dh = 2ab/(a+b) for the gap × height rectangle (reference checks,
-	// item 1 form).
+	// Dh = 4A/P = 2ab/(a+b) for the gap × height rectangle (definition of
+	// the hydraulic diameter).
 	if want := 2 * gap * 25e-3 / (gap + 25e-3); math.Abs(g.Duct.Dh()-want) > 1e-15 {
 		t.Errorf("Dh = %g, want %g", g.Duct.Dh(), want)
 	}
@@ -216,7 +216,7 @@ func TestFlatPlate(t *testing.T) {
 }
 
 // Infinite parallel plates at 350 K and 300 K, ε = 0.8 each: q″ = 261.1 W/m²
-// (reference checks, item 9; two-surface relation, Incropera eq. 13.24).
+// (hand calculation from the two-surface relation, Incropera et al. eq. 13.24).
 func TestRadiationBetweenPlates(t *testing.T) {
 	r, err := RadiationBetween(0, 1, 0.8, 1, 0.8, 1, 1)
 	if err != nil {
@@ -234,8 +234,8 @@ func TestRadiationBetweenPlates(t *testing.T) {
 
 // Two aligned unit squares 1 m apart (F = 0.19982), ε = 0.8, at 350 K and
 // 300 K, the rest of their view black surroundings at 300 K: J₁ = 773.1,
-// J₂ = 471.8 W/m², q₁ = +311.3 W, q₂ = −50.16 W (reference checks, item
-// 11, hand solution of the radiosity equations).
+// J₂ = 471.8 W/m², q₁ = +311.3 W, q₂ = −50.16 W (hand solution of the
+// radiosity equations, Incropera et al. §13.3).
 func TestEnclosureThreeSurfaces(t *testing.T) {
 	const f = 0.19982
 	pairs, err := EnclosureExchange(
@@ -265,8 +265,8 @@ func TestEnclosureThreeSurfaces(t *testing.T) {
 }
 
 // A closed two-surface enclosure must reproduce the two-surface relation
-// (reference checks, item 9: "a 2-node radiosity solve with F₁₂ = F₂₁ = 1
-// must give the same 261.1").
+// (Incropera et al. eq. 13.23): the radiosity method with F₁₂ = F₂₁ = 1 is
+// the same physics.
 func TestEnclosureMatchesTwoSurfaceRelation(t *testing.T) {
 	pairs, err := EnclosureExchange(
 		[]Surface{{Node: 0, Emissivity: 0.8, Area: 1}, {Node: 1, Emissivity: 0.8, Area: 1}},

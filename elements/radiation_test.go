@@ -7,8 +7,8 @@ import (
 
 func TestRadiationSmallBody(t *testing.T) {
 	// Small gray body ε = 0.9 at 330 K in surroundings at 300 K:
-	// q″ = 191.8 W/m², h_r = 6.395 W/(m² K) (reference checks, item 9; hand
-	// calculation from q = εσA(T₁⁴ − T₂⁴), Incropera et al. eq. 1.7).
+	// q″ = 191.8 W/m², h_r = 6.395 W/(m² K) (hand calculation from
+	// q = εσA(T₁⁴ − T₂⁴), Incropera et al. eq. 1.7, σ from CODATA 2018).
 	r, err := RadiationToSurroundings(0, 1, 0.9, 1, 1)
 	if err != nil {
 		t.Fatal(err)

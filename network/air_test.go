@@ -49,8 +49,8 @@ links:
 	ntu := detailOf(t, sol, "holes", "NTU")
 	near(t, "uniform-wall outlet relation", (tS-tOut)/(tS-tIn), math.Exp(-ntu), 1e-12)
 	near(t, "heat leaving through the vent", sol.Balance.Out[0].Heat, q, 1e-12)
-	// Reference checks, item 13, for the relation itself: T_s = 60 °C,
-	// T_in = 20 °C, NTU = 1 give T_out = 45.28 °C.
+	// The relation itself, by hand: T_s = 60 °C, T_in = 20 °C, NTU = 1
+	// give T_out = 60 − 40/e = 45.28 °C.
 	if got := 60 - 40*math.Exp(-1); math.Abs(got-45.28) > 0.005 {
 		t.Errorf("uniform-wall relation at NTU = 1: %.3f °C, want 45.28", got)
 	}
@@ -84,7 +84,8 @@ links:
 
 // The same fan volume at altitude moves less mass: the exhaust rise grows
 // as 1/ρ. At 3000 m the 1976 standard atmosphere gives 70 121 Pa against
-// 101 325 Pa at sea level (reference properties §2), a ratio of 1.445 at
+// 101 325 Pa at sea level (U.S. Standard Atmosphere 1976, p = p₀(T/T₀)^5.2559
+// with T = 268.66 K), a ratio of 1.445 at
 // equal temperature.
 func TestAltitudeThinsTheAir(t *testing.T) {
 	model := func(where string) string {
@@ -127,7 +128,8 @@ links:
 	near(t, "heat at the solution", h*0.03*(ts-300), 3, 1e-9)
 }
 
-// Three surfaces by radiosity, as in the reference checks, item 11: two
+// Three surfaces by radiosity, solved by hand from the radiosity equations
+// (Incropera et al. §13.3): two
 // aligned 1 m × 1 m plates 1 m apart (F = 0.19982 by the parallel-
 // rectangle formula), ε = 0.8, at 350 K and 300 K, the rest of their view
 // to black surroundings at 300 K: q₁ = +311.3 W, q₂ = −50.16 W.

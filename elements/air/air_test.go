@@ -34,7 +34,7 @@ var incroperaA4 = []struct {
 	T, cp, mu, k, pr float64
 	tol              float64 // relative tolerance for μ, k and Pr
 }{
-	// 250–400 K: the rows quoted in properties.md; 1 % is the agreement
+	// 250–400 K: rows of Incropera Table A.4; 1 % is the agreement
 	// expected between the U.S. Standard Atmosphere laws and the table.
 	{250, 1006, 159.6e-7, 22.3e-3, 0.720, 0.01},
 	{300, 1007, 184.6e-7, 26.3e-3, 0.707, 0.01},
