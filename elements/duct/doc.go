@@ -25,8 +25,10 @@
 //   - laminar, Re ≤ 2300: mean Nu over the length for a uniform wall
 //     temperature with simultaneously developing velocity and temperature
 //     (Stephan 1959 for tubes and plates, Muzychka & Yovanovich 2004 for
-//     rectangles), never below the fully developed value of Shah & London
-//     (1978); apparent friction from Muzychka & Yovanovich (2009).
+//     rectangles, with its fully developed term replaced by Shah & London's
+//     so that long ducts tend to the exact value), never below the fully
+//     developed value of Shah & London (1978); apparent friction from
+//     Muzychka & Yovanovich (2009).
 //   - transitional, 2300 < Re < 10⁴: the Gnielinski (2013) linear blend
 //     between the laminar values at Re = 2300 (actual length) and the
 //     turbulent values at Re = 10⁴, applied to Nu and to f alike.

@@ -76,7 +76,7 @@ type Result struct {
 
 // Correlation names reported in Result.
 const (
-	corrMuzychkaYovanovich = "Muzychka-Yovanovich (2004) combined entry"
+	corrMuzychkaYovanovich = "Muzychka-Yovanovich (2004) combined entry, Shah-London fully developed limit"
 	corrStephanTube        = "Stephan (1959) combined entry, tube"
 	corrStephanPlates      = "Stephan (1959) combined entry, parallel plates"
 	corrHausen             = "Hausen (1943) thermal entry"
@@ -99,7 +99,9 @@ const (
 //
 // Laminar (re ≤ ReLaminar): Nu = max(developing, fully developed Nu_T), both
 // continuous in Re and Pr, so Nu is continuous; the developing model follows
-// o.Laminar. F = MuzychkaYovanovichF with the fully developed f·Re of d.
+// o.Laminar (for rectangles in combined entry MuzychkaYovanovichShahLondon,
+// whose long-duct limit is the exact Nu_T). F = MuzychkaYovanovichF with the
+// fully developed f·Re of d.
 // Entrance lengths 0.05·Re·Dh (hydrodynamic) and 0.05·Re·Pr·Dh (thermal).
 //
 // Turbulent (re ≥ ReTurbulent): Nu from o.Turbulent, times ShortDuctFactor
@@ -180,7 +182,7 @@ func laminarNu(d Duct, re, pr dual.Num, m Laminar) (dual.Num, string) {
 	case d.Shape == ParallelPlates:
 		nu, name = StephanPlates(re, pr, ld), corrStephanPlates
 	default:
-		nu, name = MuzychkaYovanovichNu(re, pr, d.Aspect(), ld), corrMuzychkaYovanovich
+		nu, name = MuzychkaYovanovichShahLondon(re, pr, d.Aspect(), ld), corrMuzychkaYovanovich
 	}
 	if fd := d.LaminarNuT(); nu.V < fd {
 		return dual.C(fd), corrShahLondon

@@ -60,7 +60,7 @@ func TestFlowLaminarSources(t *testing.T) {
 		want dual.Num
 		name string
 	}{
-		{finChannel, Options{}, MuzychkaYovanovichNu(re, pr, 0.25, 10), corrMuzychkaYovanovich},
+		{finChannel, Options{}, MuzychkaYovanovichShahLondon(re, pr, 0.25, 10), corrMuzychkaYovanovich},
 		{tube, Options{}, StephanTube(re, pr, 50), corrStephanTube},
 		{slot, Options{}, StephanPlates(re, pr, 25), corrStephanPlates},
 		{tube, Options{Laminar: ThermalEntry}, Hausen(re, pr, 50), corrHausen},

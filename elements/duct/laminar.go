@@ -154,6 +154,25 @@ var MuzychkaYovanovichAspect = validity.Range{Name: "aspect", Min: 0.02, Max: 1}
 // London Nu_T(α) by up to 12 % near α = 0.5. lOverDh is L/Dh; re and pr must
 // be positive.
 func MuzychkaYovanovichNu(re, pr dual.Num, alpha, lOverDh float64) dual.Num {
+	developed := myC1 * muzychkaYovanovichFRe(alpha) / (8 * math.Sqrt(math.Pi) * math.Pow(alpha, myGamma))
+	return muzychkaYovanovich(re, pr, alpha, lOverDh, developed)
+}
+
+// MuzychkaYovanovichShahLondon is MuzychkaYovanovichNu with its fully
+// developed term, C1·fRe/(8√π·α^γ), replaced by the Shah & London (1978)
+// Nu_T(α) on the same √A scale (Nu_T·√A/Dh). The model's entry terms and
+// its blending are unchanged, so short ducts behave as in the published
+// model, while long ducts tend to the exact fully developed value instead
+// of the model's own asymptote, which is 3 to 12 % higher. This is an
+// engineering substitution of this package, not a published correlation.
+func MuzychkaYovanovichShahLondon(re, pr dual.Num, alpha, lOverDh float64) dual.Num {
+	r := 2 * math.Sqrt(alpha) / (1 + alpha) // Dh/√A
+	return muzychkaYovanovich(re, pr, alpha, lOverDh, ShahLondonNuT(alpha)/r)
+}
+
+// muzychkaYovanovich evaluates the Muzychka & Yovanovich (2004) blend with
+// the fully developed Nusselt number developed on the √A scale.
+func muzychkaYovanovich(re, pr dual.Num, alpha, lOverDh, developed float64) dual.Num {
 	r := 2 * math.Sqrt(alpha) / (1 + alpha) // Dh/√A
 	fRe := muzychkaYovanovichFRe(alpha)
 	z := inverseGraetz(re, pr, lOverDh*r*r)
@@ -162,7 +181,6 @@ func MuzychkaYovanovichNu(re, pr dual.Num, alpha, lOverDh float64) dual.Num {
 	fPr = dual.Pow(fPr, 2.0/9).Inv().Scale(0.564)
 	short := fPr.Div(dual.Sqrt(z)).Scale(myC4)
 	entry := dual.Pow(z.Inv().Scale(fRe), 1.0/3).Scale(myC2 * myC3)
-	developed := myC1 * fRe / (8 * math.Sqrt(math.Pi) * math.Pow(alpha, myGamma))
 	long := dual.Pow(dual.Pow(entry, 5).AddC(math.Pow(developed, 5)), 0.2)
 	nu := dual.PowN(dual.PowN(short, m).Add(dual.PowN(long, m)), m.Inv())
 	return nu.Scale(r)

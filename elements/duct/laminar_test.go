@@ -209,3 +209,28 @@ func TestMuzychkaYovanovichAboveShahLondon(t *testing.T) {
 		}
 	}
 }
+
+// The anchored form keeps the published model's entry region and tends to
+// the exact fully developed value: Shah & London (1978) Nu_T(α) for long
+// ducts (their table, via the fit), and the published Muzychka &
+// Yovanovich (2004) model within a few per cent where the entry terms
+// dominate (hand comparison of the two forms).
+func TestMuzychkaYovanovichShahLondon(t *testing.T) {
+	for _, a := range []float64{0.05, 0.125, 0.25, 0.5, 1} {
+		long := MuzychkaYovanovichShahLondon(dual.C(100), dual.C(0.7), a, 1e7).V
+		if want := ShahLondonNuT(a); !near(long, want, 5e-3) {
+			t.Errorf("α = %g: long-duct Nu %.4f, want Shah & London %.4f", a, long, want)
+		}
+		short := MuzychkaYovanovichShahLondon(dual.C(2000), dual.C(0.71), a, 2).V
+		published := MuzychkaYovanovichNu(dual.C(2000), dual.C(0.71), a, 2).V
+		if !near(short, published, 0.03) {
+			t.Errorf("α = %g: short-duct Nu %.4f vs published model %.4f", a, short, published)
+		}
+		if !(short >= long) {
+			t.Errorf("α = %g: developing Nu %.4f below the developed %.4f", a, short, long)
+		}
+		checkDerivative(t, "MuzychkaYovanovichShahLondon", func(re, pr dual.Num) dual.Num {
+			return MuzychkaYovanovichShahLondon(re, pr, a, 5)
+		}, 800, 0.71)
+	}
+}
