@@ -9,6 +9,7 @@ import (
 	"testing"
 
 	"github.com/heatgraph/heatgraph/network"
+	"github.com/heatgraph/heatgraph/solve"
 )
 
 var update = flag.Bool("update", false, "rewrite the golden files of invalid models")
@@ -73,13 +74,22 @@ func FuzzParse(f *testing.F) {
 	f.Add([]byte("ambient: {temperature: 25 degC}\nnodes: [{id: a, power: 1 W}]\nlinks: [{kind: lumped, from: a, to: ambient, resistance: 1 K/W}]\n"))
 	f.Fuzz(func(t *testing.T, data []byte) {
 		m, err := network.Parse("fuzz.yaml", data)
-		if err == nil {
-			if _, err := network.Build(m); err != nil {
-				var ps network.Problems
-				if !errors.As(err, &ps) {
-					t.Fatalf("build error is not a Problems list: %v", err)
-				}
+		if err != nil {
+			return
+		}
+		net, err := network.Build(m)
+		if err != nil {
+			var ps network.Problems
+			if !errors.As(err, &ps) {
+				t.Fatalf("build error is not a Problems list: %v", err)
 			}
+			return
+		}
+		// Whatever a valid model holds, solving and reporting must not
+		// panic.
+		p := net.Steady()
+		if r := solve.Newton(p, p.InitialGuess(), solve.Settings{MaxIterations: 30}); r.Reason.Converged() {
+			net.Solution(r.X)
 		}
 	})
 }
