@@ -48,6 +48,7 @@ func TestDOTFollowsHeat(t *testing.T) {
 	assert.Contains(t, dot, `label="1.5 W"`)
 	assert.Contains(t, dot, "margin +10.0 K")
 	assert.Contains(t, dot, "cluster_legend")
+	assert.Contains(t, dot, "confirm by measurement")
 	again, _ := DOT(sol, ColourMargin)
 	assert.Equal(t, dot, again, "the DOT text must be deterministic")
 }
