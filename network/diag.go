@@ -50,12 +50,3 @@ func (ps Problems) sorted() Problems {
 	sort.SliceStable(out, func(i, j int) bool { return out[i].Line < out[j].Line })
 	return out
 }
-
-// orNil returns nil for an empty list, so that a clean result compares
-// equal to a nil error.
-func (ps Problems) orNil() error {
-	if len(ps) == 0 {
-		return nil
-	}
-	return ps.sorted()
-}

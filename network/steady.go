@@ -16,6 +16,7 @@ type Steady struct {
 	net     *Network
 	temps   []float64 // every node, K
 	heat    []float64 // net heat into every node, W
+	input   float64   // total magnitude of the heat inputs, W
 	stamper assembler
 }
 
@@ -30,6 +31,9 @@ func (net *Network) Steady() *Steady {
 		if n.Fixed() {
 			p.temps[i] = n.Temperature
 		}
+	}
+	for _, s := range net.sources {
+		p.input += math.Abs(s.Q)
 	}
 	p.stamper = assembler{heat: p.heat, free: net.free}
 	return p
@@ -81,16 +85,13 @@ func (p *Steady) Evaluate(x, f []float64, jac *sparse.Matrix) (float64, error) {
 	for u, i := range p.net.unknown {
 		f[u] = p.heat[i]
 	}
-	in, through := 0.0, 0.0
-	for _, s := range p.net.sources {
-		in += math.Abs(s.Q)
-	}
+	through := 0.0
 	for i, n := range p.net.Nodes {
 		if n.Fixed() {
 			through += math.Abs(p.heat[i])
 		}
 	}
-	return math.Max(math.Max(in, through/2), minResidualScale), nil
+	return math.Max(math.Max(p.input, through/2), minResidualScale), nil
 }
 
 // minResidualScale keeps the residual scale of a model with no heat flow at

@@ -91,40 +91,15 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 		if heat < 0 {
 			from, to, heat = to, from, -heat
 		}
-		weight := 1.0
-		if qMax > 0 {
-			weight = 0.8 + 5.2*heat/qMax
-		}
-		attrs := map[string]string{
-			"label":     q(fmt.Sprintf("%.3g W", heat)),
-			"tooltip":   q(fmt.Sprintf("%s (%s)", l.ID, l.Kind)),
-			"penwidth":  strconv.FormatFloat(weight, 'f', 2, 64),
-			"arrowsize": strconv.FormatFloat(0.5+0.1*weight, 'f', 2, 64),
-			"color":     q(edgeColour),
-			"fontname":  q("Helvetica"),
-			"fontsize":  "9",
-		}
-		if qMax > 0 && heat < 1e-3*qMax {
-			attrs["style"] = "dashed"
-		}
+		colour := edgeColour
 		if l.Kind == "stream" {
-			attrs["color"] = q(airColour)
-			attrs["fontcolor"] = q(airColour)
+			colour = airColour
 		}
-		d.check(g.AddEdge(q(from), q(to), true, attrs))
+		d.check(g.AddEdge(q(from), q(to), true, edgeAttrs(heat, qMax, fmt.Sprintf("%s (%s)", l.ID, l.Kind), colour)))
 		if l.Inlet != "" && l.Carried != 0 {
 			// The air a channel passes on carries heat of its own.
-			c := math.Abs(l.Carried)
-			d.check(g.AddEdge(q(l.Inlet), q(l.To), true, map[string]string{
-				"label":     q(fmt.Sprintf("%.3g W", c)),
-				"tooltip":   q(fmt.Sprintf("%s: air from %s", l.ID, l.Inlet)),
-				"penwidth":  strconv.FormatFloat(0.8+5.2*c/qMax, 'f', 2, 64),
-				"arrowsize": strconv.FormatFloat(0.5+0.1*(0.8+5.2*c/qMax), 'f', 2, 64),
-				"color":     q(airColour),
-				"fontcolor": q(airColour),
-				"fontname":  q("Helvetica"),
-				"fontsize":  "9",
-			}))
+			d.check(g.AddEdge(q(l.Inlet), q(l.To), true,
+				edgeAttrs(math.Abs(l.Carried), qMax, fmt.Sprintf("%s: air from %s", l.ID, l.Inlet), airColour)))
 		}
 	}
 	d.legend(colouring, tMin, tMax)
@@ -132,6 +107,32 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 		return "", d.err
 	}
 	return g.String(), nil
+}
+
+// edgeAttrs returns the attributes of an edge carrying heat watts (≥ 0) of
+// the largest qMax: labelled in watts, thicker for more heat, dashed when
+// it carries next to nothing.
+func edgeAttrs(heat, qMax float64, tooltip, colour string) map[string]string {
+	weight := 1.0
+	if qMax > 0 {
+		weight = 0.8 + 5.2*heat/qMax
+	}
+	attrs := map[string]string{
+		"label":     q(fmt.Sprintf("%.3g W", heat)),
+		"tooltip":   q(tooltip),
+		"penwidth":  strconv.FormatFloat(weight, 'f', 2, 64),
+		"arrowsize": strconv.FormatFloat(0.5+0.1*weight, 'f', 2, 64),
+		"color":     q(colour),
+		"fontname":  q("Helvetica"),
+		"fontsize":  "9",
+	}
+	if colour != edgeColour {
+		attrs["fontcolor"] = q(colour)
+	}
+	if qMax > 0 && heat < 1e-3*qMax {
+		attrs["style"] = "dashed"
+	}
+	return attrs
 }
 
 type dotBuilder struct {

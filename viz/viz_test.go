@@ -28,7 +28,13 @@ links:
 
 func solved(t *testing.T) (*network.Solution, Run) {
 	t.Helper()
-	m, err := network.Parse("small.yaml", []byte(small))
+	return solveText(t, "small.yaml", small)
+}
+
+// solveText parses, builds and solves a model given as text.
+func solveText(t *testing.T, name, text string) (*network.Solution, Run) {
+	t.Helper()
+	m, err := network.Parse(name, []byte(text))
 	require.NoError(t, err)
 	net, err := network.Build(m)
 	require.NoError(t, err)
@@ -136,7 +142,7 @@ func TestRenderFormats(t *testing.T) {
 // A channel's air carries the heat picked up upstream; the diagram must
 // show that path, or the heat would seem to vanish at the air node.
 func TestDOTShowsCarriedAir(t *testing.T) {
-	m, err := network.Parse("duct.yaml", []byte(`
+	sol, _ := solveText(t, "duct.yaml", `
 ambient: {temperature: 20 degC}
 nodes:
   - {id: a, power: 10 W}
@@ -147,14 +153,7 @@ links:
   - {kind: channel, from: a, inlet: ambient, to: mid, flow: 4 CFM, shape: circular, diameter: 6 mm, count: 8, length: 80 mm}
   - {id: second, kind: channel, from: b, inlet: mid, to: out, flow: 4 CFM, shape: circular, diameter: 6 mm, count: 8, length: 80 mm}
   - {kind: stream, from: out, to: ambient, flow: 4 CFM}
-`))
-	require.NoError(t, err)
-	net, err := network.Build(m)
-	require.NoError(t, err)
-	p := net.Steady()
-	r := solve.Newton(p, p.InitialGuess(), solve.Settings{})
-	require.True(t, r.Reason.Converged())
-	sol := net.Solution(r.X)
+`)
 	for _, l := range sol.Links {
 		if l.ID == "second" {
 			assert.Equal(t, "mid", l.Inlet)
