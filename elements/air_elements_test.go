@@ -14,11 +14,7 @@ import (
 // 20 °C.
 var airEnv = &Env{Pressure: 101325, Gravity: StandardGravity, AmbientT: 293.15, AirCp: air.SpecificHeat(dual.C(293.15)).V}
 
-func stampEnv(el Element, t []float64) *recorder {
-	r := newRecorder(len(t))
-	el.Stamp(&State{T: t, Env: airEnv}, r)
-	return r
-}
+func stampEnv(el Element, x []float64) *recorder { return stampAt(el, airEnv, x) }
 
 func detail(t *testing.T, rep Report, name string) Detail {
 	t.Helper()
@@ -32,8 +28,8 @@ func detail(t *testing.T, rep Report, name string) Detail {
 }
 
 func TestStream(t *testing.T) {
-	s := &Stream{Up: 0, Down: 1, MassFlow: 0.01}
-	temps := []float64{303.15, 310}
+	s := &Stream{Up: 0, Down: 1, Flow: 2}
+	temps := []float64{303.15, 310, 0.01}
 	r := stampEnv(s, temps)
 	// ṁ·c_p·(T_up − T_ambient) = 0.01 × c_p × 10 K.
 	want := 0.01 * airEnv.AirCp * 10
@@ -105,10 +101,10 @@ func TestChannelJacobianAllRegimes(t *testing.T) {
 		{"tubes turbulent", tube, 4e-3, duct.Options{}},
 	}
 	for _, c := range cases {
-		ch := &Channel{Wall: 0, Inlet: 1, Outlet: 2, MassFlow: c.mdot, Geometry: c.g, Options: c.opt}
-		temps := []float64{340, 298, 312}
+		ch := &Channel{Wall: 0, Inlet: 1, Outlet: 2, Flow: 3, Geometry: c.g, Options: c.opt}
+		temps := []float64{340, 298, 312, c.mdot}
 		checkJacobianEnv(t, c.name, ch, temps)
-		rep := ch.Report(&State{T: temps, Env: airEnv})
+		rep := ch.Report(&State{X: temps, Env: airEnv})
 		regime := detail(t, rep, "regime").Text
 		want := strings.Fields(c.name)[1]
 		if !strings.HasPrefix(regime, want) {
@@ -123,9 +119,9 @@ func TestChannelJacobianAllRegimes(t *testing.T) {
 // (Incropera et al. eq. 8.42b).
 func TestChannelTraceable(t *testing.T) {
 	g := plateFin(t)
-	ch := &Channel{Wall: 0, Inlet: 1, Outlet: 2, MassFlow: 5e-3, Geometry: g}
-	temps := []float64{333.15, 293.15, 303.15}
-	s := &State{T: temps, Env: airEnv}
+	ch := &Channel{Wall: 0, Inlet: 1, Outlet: 2, Flow: 3, Geometry: g}
+	temps := []float64{333.15, 293.15, 303.15, 5e-3}
+	s := &State{X: temps, Env: airEnv}
 	rep := ch.Report(s)
 	p := air.At(dual.C(298.15), airEnv.Pressure) // mean bulk temperature
 	re := 5e-3 * g.Duct.Dh() / (g.FlowArea() * p.Mu.V)
@@ -177,7 +173,7 @@ func TestNaturalJacobians(t *testing.T) {
 // (0.492/Pr)^(9/16)]^(8/27)}² (Churchill & Chu 1975).
 func TestNaturalVerticalByHand(t *testing.T) {
 	n, _ := NewNatural(0, 1, Vertical, 0.1*0.2, 0.1, Fins{})
-	s := &State{T: []float64{330, 300}, Env: airEnv}
+	s := &State{X: []float64{330, 300}, Env: airEnv}
 	p := air.At(dual.C(315), airEnv.Pressure)
 	ra := StandardGravity / 315 * 30 * 1e-3 / (p.Nu.V * p.Alpha.V)
 	pr := p.Pr.V
@@ -192,7 +188,7 @@ func TestNaturalVerticalByHand(t *testing.T) {
 	if h < 2 || h > 10 {
 		t.Errorf("h = %g W/(m² K), outside the usual range for free convection in air", h)
 	}
-	r := stampEnv(n, s.T)
+	r := stampEnv(n, s.X)
 	if q := r.q[1]; math.Abs(q-h*0.02*30) > 1e-9*q {
 		t.Errorf("q = %g, want h·A·ΔT = %g", q, h*0.02*30)
 	}
@@ -210,7 +206,7 @@ func TestFlatPlate(t *testing.T) {
 	p := air.At(dual.C(315), airEnv.Pressure)
 	re := 2 * 0.3 / p.Nu.V
 	h := 0.664 * math.Sqrt(re) * math.Cbrt(p.Pr.V) * p.K.V / 0.3
-	if got := detail(t, f.Report(&State{T: []float64{330, 300}, Env: airEnv}), "h").Value; math.Abs(got-h) > 1e-9*h {
+	if got := detail(t, f.Report(&State{X: []float64{330, 300}, Env: airEnv}), "h").Value; math.Abs(got-h) > 1e-9*h {
 		t.Errorf("h = %g, want %g", got, h)
 	}
 }
@@ -290,10 +286,10 @@ func TestChannelSegmentsAddUp(t *testing.T) {
 	g := plateFin(t)
 	half := g
 	half.Duct.Length /= 2
-	whole := &Channel{Wall: 0, Inlet: 1, Outlet: 2, MassFlow: 3e-3, Geometry: g}
-	front := &Channel{Wall: 0, Inlet: 1, Outlet: 2, MassFlow: 3e-3, Geometry: half}
-	rear := &Channel{Wall: 0, Inlet: 1, Outlet: 2, MassFlow: 3e-3, Geometry: half, Upstream: half.Duct.Length}
-	s := &State{T: []float64{330, 300, 310}, Env: airEnv}
+	whole := &Channel{Wall: 0, Inlet: 1, Outlet: 2, Flow: 3, Geometry: g}
+	front := &Channel{Wall: 0, Inlet: 1, Outlet: 2, Flow: 3, Geometry: half}
+	rear := &Channel{Wall: 0, Inlet: 1, Outlet: 2, Flow: 3, Geometry: half, Upstream: half.Duct.Length}
+	s := &State{X: []float64{330, 300, 310, 3e-3}, Env: airEnv}
 	nu := func(c *Channel) float64 { return detail(t, c.Report(s), "Nu").Value }
 	sum := nu(front) + nu(rear)
 	if math.Abs(sum-2*nu(whole)) > 1e-9*sum {
@@ -302,7 +298,7 @@ func TestChannelSegmentsAddUp(t *testing.T) {
 	if nu(rear) >= nu(front) {
 		t.Errorf("the rear segment of developing flow must have the lower Nu: %g vs %g", nu(rear), nu(front))
 	}
-	checkJacobianEnv(t, "rear segment", rear, s.T)
+	checkJacobianEnv(t, "rear segment", rear, s.X)
 }
 
 // Isothermal fins bound the finned channel from above: η_f = 1 gives the
@@ -312,14 +308,14 @@ func TestIsothermalFins(t *testing.T) {
 	g := plateFin(t)
 	iso := g
 	iso.IsothermalFins = true
-	s := &State{T: []float64{330, 300, 310}, Env: airEnv}
-	real := &Channel{Wall: 0, Inlet: 1, Outlet: 2, MassFlow: 3e-3, Geometry: g}
-	ideal := &Channel{Wall: 0, Inlet: 1, Outlet: 2, MassFlow: 3e-3, Geometry: iso}
+	s := &State{X: []float64{330, 300, 310, 3e-3}, Env: airEnv}
+	real := &Channel{Wall: 0, Inlet: 1, Outlet: 2, Flow: 3, Geometry: g}
+	ideal := &Channel{Wall: 0, Inlet: 1, Outlet: 2, Flow: 3, Geometry: iso}
 	if detail(t, ideal.Report(s), "fin_efficiency").Value != 1 {
 		t.Error("isothermal fins must report an efficiency of 1")
 	}
 	if !(detail(t, ideal.Report(s), "NTU").Value > detail(t, real.Report(s), "NTU").Value) {
 		t.Error("isothermal fins must transfer more than real ones")
 	}
-	checkJacobianEnv(t, "isothermal fins", ideal, s.T)
+	checkJacobianEnv(t, "isothermal fins", ideal, s.X)
 }

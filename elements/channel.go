@@ -121,7 +121,7 @@ func Passages(d duct.Duct, count int) (ChannelGeometry, error) {
 // follows from h̄·L = ∫h dx.
 type Channel struct {
 	Wall, Inlet, Outlet int
-	MassFlow            float64 // kg/s
+	Flow                int // the variable holding the mass flow, kg/s
 	Geometry            ChannelGeometry
 	Options             duct.Options
 	Upstream            float64 // length of the same channels upstream, m; 0 at the entry
@@ -136,18 +136,29 @@ type channelState struct {
 	flow      duct.Result
 }
 
-// eval computes the channel at temperatures tin, tout, twall, with the
-// dual seed on the mean bulk temperature when seed is true.
-func (c *Channel) eval(s *State, seed bool) (cs channelState, tm dual.Num) {
-	tm = dual.C((s.T[c.Inlet] + s.T[c.Outlet]) / 2)
-	if seed {
+// Seeds of the channel's dual evaluation.
+const (
+	seedNone = iota
+	seedMean // the mean bulk temperature
+	seedFlow // the mass flow
+)
+
+// eval computes the channel at the state's temperatures and flow, with the
+// dual seed on the mean bulk temperature or on the mass flow.
+func (c *Channel) eval(s *State, seed int) (cs channelState, tm dual.Num) {
+	tm = dual.C((s.X[c.Inlet] + s.X[c.Outlet]) / 2)
+	m := dual.C(s.X[c.Flow])
+	switch seed {
+	case seedMean:
 		tm.D = 1
+	case seedFlow:
+		m.D = 1
 	}
 	g := &c.Geometry
 	p := air.At(tm, s.Env.Pressure)
-	re := p.Mu.Inv().Scale(c.MassFlow * g.Duct.Dh() / g.FlowArea())
+	re := p.Mu.Inv().Mul(m).Scale(g.Duct.Dh() / g.FlowArea())
 	opts := c.Options
-	opts.Heating = s.T[c.Wall] > tm.V
+	opts.Heating = s.X[c.Wall] > tm.V
 	res := c.segmentFlow(re, p.Pr, opts)
 	h := res.Nu.Mul(p.K).Scale(1 / g.Duct.Dh())
 	aEff := dual.C(g.PrimeArea)
@@ -159,7 +170,7 @@ func (c *Channel) eval(s *State, seed bool) (cs channelState, tm dual.Num) {
 		}
 		aEff = aEff.Add(eta.Scale(g.FinArea))
 	}
-	ntu := h.Mul(aEff).Scale(1 / (c.MassFlow * s.Env.AirCp))
+	ntu := h.Mul(aEff).Div(m.Scale(s.Env.AirCp))
 	return channelState{props: p, re: re, nu: res.Nu, h: h, etaF: eta, ntu: ntu, eff: dual.OneMinusExpNeg(ntu), flow: res}, tm
 }
 
@@ -181,29 +192,55 @@ func (c *Channel) segmentFlow(re, pr dual.Num, opts duct.Options) duct.Result {
 	return seg
 }
 
-// Nodes returns Wall, Inlet and Outlet.
-func (c *Channel) Nodes() []int { return []int{c.Wall, c.Inlet, c.Outlet} }
+// Rows returns Wall, Inlet and Outlet.
+func (c *Channel) Rows() []int { return []int{c.Wall, c.Inlet, c.Outlet} }
 
-// Stamp adds the heat from the wall and the enthalpy carried.
-func (c *Channel) Stamp(s *State, out Stamper) {
-	cs, _ := c.eval(s, true)
-	mc := c.MassFlow * s.Env.AirCp
-	dT := s.T[c.Wall] - s.T[c.Inlet]
+// Vars returns Wall, Inlet, Outlet and Flow.
+func (c *Channel) Vars() []int { return []int{c.Wall, c.Inlet, c.Outlet, c.Flow} }
+
+// Eval adds the heat from the wall and the enthalpy carried.
+func (c *Channel) Eval(s *State, l *Local) {
+	cs, _ := c.eval(s, seedMean)
+	m := s.X[c.Flow]
+	mc := m * s.Env.AirCp
+	dT := s.X[c.Wall] - s.X[c.Inlet]
 	q := mc * cs.eff.V * dT
-	hin := mc * (s.T[c.Inlet] - s.Env.AmbientT)
+	rise := s.X[c.Inlet] - s.Env.AmbientT
+	hin := mc * rise
+	l.Add(0, -q)
+	l.Add(1, -hin)
+	l.Add(2, hin+q)
+	if !l.WantsJacobian() {
+		return
+	}
 	// ∂q/∂T_m, shared by inlet and outlet through T_m = (T_in + T_out)/2.
 	dqm := mc * cs.eff.D * dT / 2
-	out.AddHeat(c.Wall, -q)
-	out.AddHeat(c.Inlet, -hin)
-	out.AddHeat(c.Outlet, hin+q)
 	dqw, dqi, dqo := mc*cs.eff.V, -mc*cs.eff.V+dqm, dqm
-	out.AddDeriv(c.Wall, c.Wall, -dqw)
-	out.AddDeriv(c.Wall, c.Inlet, -dqi)
-	out.AddDeriv(c.Wall, c.Outlet, -dqo)
-	out.AddDeriv(c.Inlet, c.Inlet, -mc)
-	out.AddDeriv(c.Outlet, c.Wall, dqw)
-	out.AddDeriv(c.Outlet, c.Inlet, mc+dqi)
-	out.AddDeriv(c.Outlet, c.Outlet, dqo)
+	byFlow, _ := c.eval(s, seedFlow)
+	dqf := s.Env.AirCp * dT * (cs.eff.V + m*byFlow.eff.D)
+	dhf := s.Env.AirCp * rise
+	l.D(0, 0, -dqw)
+	l.D(0, 1, -dqi)
+	l.D(0, 2, -dqo)
+	l.D(0, 3, -dqf)
+	l.D(1, 1, -mc)
+	l.D(1, 3, -dhf)
+	l.D(2, 0, dqw)
+	l.D(2, 1, mc+dqi)
+	l.D(2, 2, dqo)
+	l.D(2, 3, dhf+dqf)
+}
+
+// Paths returns the heat from the wall to the outlet air and the heat the
+// air brings from the inlet, above ambient.
+func (c *Channel) Paths(s *State) []Path {
+	cs, _ := c.eval(s, seedNone)
+	mc := s.X[c.Flow] * s.Env.AirCp
+	q := mc * cs.eff.V * (s.X[c.Wall] - s.X[c.Inlet])
+	return []Path{
+		{From: c.Wall, To: c.Outlet, Heat: q},
+		{From: c.Inlet, To: c.Outlet, Heat: mc * (s.X[c.Inlet] - s.Env.AmbientT), Carried: true},
+	}
 }
 
 // Report gives what a reviewer needs to check the channel by hand: flow
@@ -211,16 +248,16 @@ func (c *Channel) Stamp(s *State, out Stamper) {
 // fin efficiency, pressure drop and entrance length, and warnings when a
 // correlation is used outside its range.
 func (c *Channel) Report(s *State) Report {
-	cs, tm := c.eval(s, false)
+	cs, tm := c.eval(s, seedNone)
 	g := &c.Geometry
 	p := cs.props
-	v := c.MassFlow / (p.Rho.V * g.FlowArea())
+	v := s.X[c.Flow] / (p.Rho.V * g.FlowArea())
 	dp := 0.0
 	if !math.IsInf(cs.flow.F.V, 0) {
 		dp = duct.PressureDrop(cs.flow.F, g.Duct.Length/g.Duct.Dh(), g.KEntry+g.KExit, p.Rho, dual.C(v)).V
 	}
-	mc := c.MassFlow * s.Env.AirCp
-	q := mc * cs.eff.V * (s.T[c.Wall] - s.T[c.Inlet])
+	mc := s.X[c.Flow] * s.Env.AirCp
+	q := mc * cs.eff.V * (s.X[c.Wall] - s.X[c.Inlet])
 	regime := cs.flow.Regime
 	if cs.flow.Developing {
 		regime += ", developing"
@@ -236,9 +273,9 @@ func (c *Channel) Report(s *State) Report {
 		{Name: "velocity", Value: v, Unit: "m/s"},
 		{Name: "Dh", Value: g.Duct.Dh(), Unit: "m"},
 		{Name: "channels", Value: float64(g.Count)},
-		{Name: "mass_flow", Value: c.MassFlow, Unit: "kg/s"},
-		{Name: "inlet_temperature", Value: s.T[c.Inlet] - 273.15, Unit: "degC"},
-		{Name: "outlet_temperature", Value: s.T[c.Outlet] - 273.15, Unit: "degC"},
+		{Name: "mass_flow", Value: s.X[c.Flow], Unit: "kg/s"},
+		{Name: "inlet_temperature", Value: s.X[c.Inlet] - 273.15, Unit: "degC"},
+		{Name: "outlet_temperature", Value: s.X[c.Outlet] - 273.15, Unit: "degC"},
 		{Name: "mean_bulk_temperature", Value: tm.V - 273.15, Unit: "degC"},
 		{Name: "NTU", Value: cs.ntu.V},
 		{Name: "effectiveness", Value: cs.eff.V},

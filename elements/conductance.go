@@ -55,12 +55,15 @@ func FixedConvection(a, b int, h, area float64) (*Conductance, error) {
 	return &Conductance{A: a, B: b, G: h * area}, nil
 }
 
-// Nodes returns A and B.
-func (c *Conductance) Nodes() []int { return []int{c.A, c.B} }
+// Rows returns A and B.
+func (c *Conductance) Rows() []int { return []int{c.A, c.B} }
 
-// Stamp adds G·(T_B − T_A) into A and the opposite into B.
-func (c *Conductance) Stamp(s *State, out Stamper) {
-	stampPair(out, c.A, c.B, c.G*(s.T[c.A]-s.T[c.B]), c.G, -c.G)
+// Vars returns A and B.
+func (c *Conductance) Vars() []int { return []int{c.A, c.B} }
+
+// Eval adds G·(T_B − T_A) into A and the opposite into B.
+func (c *Conductance) Eval(s *State, l *Local) {
+	stampPair(l, c.G*(s.X[c.A]-s.X[c.B]), c.G, -c.G)
 }
 
 // Report gives the conductance and its resistance.

@@ -1,16 +1,5 @@
 package elements
 
-// Stamper receives an element's contribution to the energy balance of its
-// nodes. Node indices are those of the assembled network; the stamper decides
-// which of them are unknowns.
-type Stamper interface {
-	// AddHeat adds q watts flowing into node n.
-	AddHeat(n int, q float64)
-	// AddDeriv adds d = ∂q_n/∂T_m, the change of the heat flowing into node
-	// n per kelvin of node m, in W/K.
-	AddDeriv(n, m int, d float64)
-}
-
 // Env holds the conditions shared by every element.
 type Env struct {
 	Pressure float64 // ambient absolute pressure, Pa; air inside the box is at this pressure too
@@ -31,23 +20,127 @@ type Env struct {
 // as used by the U.S. Standard Atmosphere 1976).
 const StandardGravity = 9.80665
 
-// State is what an element reads when it stamps or reports.
+// State is what an element reads when it evaluates or reports: every
+// quantity of the network in one vector, indexed by the variables the
+// element was built with. A node's temperature (K), an air node's pressure
+// (Pa above ambient) and a flow branch's mass flow (kg/s) are all
+// variables; which of them are unknowns and which are given is the
+// network's business, not the element's.
 type State struct {
-	T   []float64 // temperature of every node, K
-	Env *Env
+	X    []float64 // every variable's value, SI
+	Time float64   // s since the start of a run; 0 in a steady solve
+	Env  *Env
 }
 
-// Element is a part of the network that moves heat between its nodes, or
-// puts heat into them. Stamp must add, for every node the element touches,
-// the heat flowing into that node and its exact derivatives with respect to
-// the temperatures of the element's nodes.
+// Element is a part of the network: a link that moves heat (or air)
+// between nodes, a source that puts heat in, a store that holds heat.
+//
+// Each equation of the network is paired with one variable: a node's heat
+// balance (W) with its temperature, an air node's mass balance (kg/s) with
+// its pressure, a flow branch's momentum balance (Pa) with its mass flow.
+// An element names the equations it adds to (Rows) and the variables it
+// reads (Vars), once, when the network is assembled; the network then
+// resolves where each of its Jacobian entries lives, and Eval only writes
+// values.
 type Element interface {
-	// Nodes returns the indices of the nodes the element touches. The
-	// Jacobian pattern is built from it, so Stamp may only call AddDeriv
-	// for pairs of these nodes.
-	Nodes() []int
-	// Stamp adds the element's heat flows and their derivatives at s.
-	Stamp(s *State, out Stamper)
+	// Rows returns the equations the element adds to, by the variable
+	// each is paired with.
+	Rows() []int
+	// Vars returns the variables the element reads: its Jacobian
+	// columns. Eval may only write derivatives with respect to these.
+	Vars() []int
+	// Eval adds, for each of its rows r, the flow into that equation
+	// (heat into a node, W, say) to l.R[r] and, when l wants them, the
+	// exact derivatives with respect to each of its variables v with
+	// l.D(r, v, ∂/∂x_v). Indices r and v are positions in Rows and Vars.
+	Eval(s *State, l *Local)
+}
+
+// Local is an element's private view of the residual and the Jacobian:
+// R[r] for its rows and a dense block of derivatives, rows by vars.
+type Local struct {
+	R  []float64 // one per row
+	J  []float64 // rows × vars, row-major; nil when no derivatives are wanted
+	NV int       // number of vars
+}
+
+// NewLocal returns a Local for an element of nr rows and nv vars, with
+// derivatives when jac is true.
+func NewLocal(nr, nv int, jac bool) *Local {
+	l := &Local{R: make([]float64, nr), NV: nv}
+	if jac {
+		l.J = make([]float64, nr*nv)
+	}
+	return l
+}
+
+// Reset zeroes the local values and sizes them for nr rows and nv vars,
+// reusing the storage.
+func (l *Local) Reset(nr, nv int, jac bool) {
+	if cap(l.R) < nr {
+		l.R = make([]float64, nr)
+	}
+	l.R = l.R[:nr]
+	clear(l.R)
+	l.NV = nv
+	if !jac {
+		l.J = nil
+		return
+	}
+	if cap(l.J) < nr*nv {
+		l.J = make([]float64, nr*nv)
+	}
+	l.J = l.J[:nr*nv]
+	clear(l.J)
+}
+
+// Add adds v to row r.
+func (l *Local) Add(r int, v float64) { l.R[r] += v }
+
+// D adds the derivative d of row r with respect to var v; it does nothing
+// when derivatives are not wanted.
+func (l *Local) D(r, v int, d float64) {
+	if l.J != nil {
+		l.J[r*l.NV+v] += d
+	}
+}
+
+// WantsJacobian reports whether derivatives are wanted, so that an element
+// may skip work that only they need.
+func (l *Local) WantsJacobian() bool { return l.J != nil }
+
+// Storage is implemented by elements that hold a stored quantity: the heat
+// in a node's thermal mass. Stored adds, for each of the element's rows,
+// the stored energy E (J, relative to 0 K) to l.R and its derivatives
+// ∂E/∂x (the heat capacity, J/K) with l.D. A time integrator wraps the
+// network as dE/dt = flows; no element knows the method.
+type Storage interface {
+	Stored(s *State, l *Local)
+}
+
+// Source is implemented by elements that put heat into the network rather
+// than move it; the energy balance counts them as heat in.
+type Source interface {
+	Element
+	// Power returns the heat the element puts in at s, W.
+	Power(s *State) float64
+}
+
+// Path is one way heat goes through an element, for reports, diagrams and
+// the heat-path breakdown: Heat watts from node From to node To (positive
+// that way). Carried marks heat carried by moving air (enthalpy), as
+// opposed to heat that crosses a solid, a gap or a surface.
+type Path struct {
+	From, To int // node variables
+	Heat     float64
+	Carried  bool
+}
+
+// PathReporter is implemented by elements whose heat paths are not simply
+// "from their first row to their second". An element without it that has
+// two rows has one path, from row 0 to row 1, carrying what leaves row 0.
+type PathReporter interface {
+	Paths(s *State) []Path
 }
 
 // Detail is one quantity an element reports at a solution, such as a heat
@@ -73,21 +166,22 @@ type Reporter interface {
 	Report(s *State) Report
 }
 
-// Source is implemented by elements that put heat into the network rather
-// than move it; the energy balance counts them as heat in.
-type Source interface {
-	Element
-	// Power returns the heat the element puts in at s, W.
-	Power(s *State) float64
-}
+// pair is the element of every two-node link: rows and vars are the two
+// nodes, in order.
+type pair struct{ A, B int }
 
-// stampPair stamps a heat flow q from node a to node b, with its
-// derivatives dqa = ∂q/∂T_a and dqb = ∂q/∂T_b: every two-node link is this.
-func stampPair(out Stamper, a, b int, q, dqa, dqb float64) {
-	out.AddHeat(a, -q)
-	out.AddHeat(b, q)
-	out.AddDeriv(a, a, -dqa)
-	out.AddDeriv(a, b, -dqb)
-	out.AddDeriv(b, a, dqa)
-	out.AddDeriv(b, b, dqb)
+func (p pair) Rows() []int { return []int{p.A, p.B} }
+func (p pair) Vars() []int { return []int{p.A, p.B} }
+
+// stampPair stamps a heat flow q from row/var 0 to row/var 1 of l, with its
+// derivatives dqa = ∂q/∂x₀ and dqb = ∂q/∂x₁: every two-node link is this.
+func stampPair(l *Local, q, dqa, dqb float64) {
+	l.R[0] -= q
+	l.R[1] += q
+	if l.J != nil {
+		l.J[0] -= dqa
+		l.J[1] -= dqb
+		l.J[l.NV] += dqa
+		l.J[l.NV+1] += dqb
+	}
 }

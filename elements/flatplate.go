@@ -41,24 +41,27 @@ func (f *FlatPlate) eval(s *State, film dual.Num) (re, nu, h dual.Num, p air.Pro
 	return re, nu, h, p
 }
 
-// Nodes returns Surface and Air.
-func (f *FlatPlate) Nodes() []int { return []int{f.Surface, f.Air} }
+// Rows returns Surface and Air.
+func (f *FlatPlate) Rows() []int { return []int{f.Surface, f.Air} }
 
-// Stamp adds q = h·A·(T_s − T_air); h depends on both temperatures through
+// Vars returns Surface and Air.
+func (f *FlatPlate) Vars() []int { return []int{f.Surface, f.Air} }
+
+// Eval adds q = h·A·(T_s − T_air); h depends on both temperatures through
 // the film temperature, with derivative ∂h/∂T_film / 2 on each.
-func (f *FlatPlate) Stamp(s *State, out Stamper) {
-	ts, ta := s.T[f.Surface], s.T[f.Air]
+func (f *FlatPlate) Eval(s *State, l *Local) {
+	ts, ta := s.X[f.Surface], s.X[f.Air]
 	_, _, h, _ := f.eval(s, dual.Var((ts+ta)/2))
 	dT := ts - ta
 	q := h.V * f.Area * dT
 	dqs := f.Area * (h.V + h.D*dT/2)
 	dqa := f.Area * (-h.V + h.D*dT/2)
-	stampPair(out, f.Surface, f.Air, q, dqs, dqa)
+	stampPair(l, q, dqs, dqa)
 }
 
 // Report gives Re, Nu, h, the regime and warnings outside the range.
 func (f *FlatPlate) Report(s *State) Report {
-	film := (s.T[f.Surface] + s.T[f.Air]) / 2
+	film := (s.X[f.Surface] + s.X[f.Air]) / 2
 	re, nu, h, p := f.eval(s, dual.C(film))
 	regime, corr := "laminar", "flat plate, laminar (Incropera eq. 7.30)"
 	if re.V >= convection.CriticalRe {

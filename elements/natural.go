@@ -106,7 +106,7 @@ type rangeCheck struct {
 // eval computes h·A at the current temperatures with the dual seed on
 // T_surface (seed 0), T_air (seed 1), or none (seed −1).
 func (n *Natural) eval(s *State, seed int) naturalState {
-	ts, ta := dual.C(s.T[n.Surface]), dual.C(s.T[n.Air])
+	ts, ta := dual.C(s.X[n.Surface]), dual.C(s.X[n.Air])
 	switch seed {
 	case 0:
 		ts.D = 1
@@ -165,18 +165,21 @@ func gravityRa(s *State, p air.Props, dT dual.Num, L float64) dual.Num {
 	return p.Beta.Mul(dual.Abs(dT)).Scale(s.Env.Gravity * L * L * L).Div(p.Nu.Mul(p.Alpha))
 }
 
-// Nodes returns Surface and Air.
-func (n *Natural) Nodes() []int { return []int{n.Surface, n.Air} }
+// Rows returns Surface and Air.
+func (n *Natural) Rows() []int { return []int{n.Surface, n.Air} }
 
-// Stamp adds q = h·A·(T_s − T_air) with its exact derivatives, h included.
-func (n *Natural) Stamp(s *State, out Stamper) {
-	dT := s.T[n.Surface] - s.T[n.Air]
+// Vars returns Surface and Air.
+func (n *Natural) Vars() []int { return []int{n.Surface, n.Air} }
+
+// Eval adds q = h·A·(T_s − T_air) with its exact derivatives, h included.
+func (n *Natural) Eval(s *State, l *Local) {
+	dT := s.X[n.Surface] - s.X[n.Air]
 	bySurface := n.eval(s, 0).hA
 	byAir := n.eval(s, 1).hA
 	q := bySurface.V * dT
 	dqs := bySurface.V + bySurface.D*dT
 	dqa := -bySurface.V + byAir.D*dT
-	stampPair(out, n.Surface, n.Air, q, dqs, dqa)
+	stampPair(l, q, dqs, dqa)
 }
 
 // Report gives the correlation, Ra (El for fin arrays), Nu, h and the film
@@ -195,7 +198,7 @@ func (n *Natural) Report(s *State) Report {
 		{Name: "Nu", Value: ns.nu.V},
 		{Name: "h", Value: ns.h.V, Unit: "W/(m2 K)"},
 		{Name: "characteristic_length", Value: n.charLength(), Unit: "m"},
-		{Name: "film_temperature", Value: (s.T[n.Surface]+s.T[n.Air])/2 - 273.15, Unit: "degC"},
+		{Name: "film_temperature", Value: (s.X[n.Surface]+s.X[n.Air])/2 - 273.15, Unit: "degC"},
 	}
 	if n.Orientation == FinArray {
 		d = append(d, Detail{Name: "fin_efficiency", Value: ns.eta.V})
@@ -206,7 +209,7 @@ func (n *Natural) Report(s *State) Report {
 			warn = append(warn, ns.correlation+": "+w)
 		}
 	}
-	warn = append(warn, air.Check((s.T[n.Surface]+s.T[n.Air])/2, s.Env.Pressure)...)
+	warn = append(warn, air.Check((s.X[n.Surface]+s.X[n.Air])/2, s.Env.Pressure)...)
 	return Report{Details: d, Warnings: warn}
 }
 

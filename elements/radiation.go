@@ -73,24 +73,27 @@ func checkEmissivity(eps float64) error {
 	return nil
 }
 
-// Nodes returns A and B.
-func (r *Radiation) Nodes() []int { return []int{r.A, r.B} }
+// Rows returns A and B.
+func (r *Radiation) Rows() []int { return []int{r.A, r.B} }
 
-// Stamp adds the exchange and its exact derivatives 4σS·T³.
-func (r *Radiation) Stamp(s *State, out Stamper) {
-	ta, tb := s.T[r.A], s.T[r.B]
+// Vars returns A and B.
+func (r *Radiation) Vars() []int { return []int{r.A, r.B} }
+
+// Eval adds the exchange and its exact derivatives 4σS·T³.
+func (r *Radiation) Eval(s *State, l *Local) {
+	ta, tb := s.X[r.A], s.X[r.B]
 	ta2, tb2 := ta*ta, tb*tb
 	q := StefanBoltzmann * r.S * (ta2*ta2 - tb2*tb2)
 	da := 4 * StefanBoltzmann * r.S * ta2 * ta
 	db := 4 * StefanBoltzmann * r.S * tb2 * tb
-	stampPair(out, r.A, r.B, q, da, -db)
+	stampPair(l, q, da, -db)
 }
 
 // Report gives the exchange area and the radiative heat transfer
 // coefficient h_r = σ(T_A + T_B)(T_A² + T_B²), referred to the exchange area,
 // so that q = h_r·S·(T_A − T_B) can be checked by hand.
 func (r *Radiation) Report(s *State) Report {
-	ta, tb := s.T[r.A], s.T[r.B]
+	ta, tb := s.X[r.A], s.X[r.B]
 	hr := StefanBoltzmann * (ta + tb) * (ta*ta + tb*tb)
 	return Report{Details: []Detail{
 		{Name: "exchange area", Value: r.S, Unit: "m2"},

@@ -17,7 +17,7 @@ func TestRadiationSmallBody(t *testing.T) {
 	if got := rec.q[1]; math.Abs(got-191.8)/191.8 > 1e-3 {
 		t.Errorf("q″ = %.4f W/m², want 191.8", got)
 	}
-	rep := r.Report(&State{T: []float64{330, 300}})
+	rep := r.Report(&State{X: []float64{330, 300}})
 	hr := rep.Details[1].Value * 0.9 // referred to the area, not the exchange area
 	if math.Abs(hr-6.395)/6.395 > 1e-3 {
 		t.Errorf("ε·h_r = %.4f W/(m² K), want 6.395", hr)

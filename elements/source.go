@@ -7,11 +7,17 @@ type HeatInput struct {
 	Q    float64 // W; negative values remove heat (a thermoelectric cold side, say)
 }
 
-// Nodes returns the one node heated.
-func (h *HeatInput) Nodes() []int { return []int{h.Node} }
+// Rows returns the one node heated.
+func (h *HeatInput) Rows() []int { return []int{h.Node} }
 
-// Stamp adds Q into the node. It has no temperature derivative.
-func (h *HeatInput) Stamp(_ *State, out Stamper) { out.AddHeat(h.Node, h.Q) }
+// Vars returns nothing: the heat does not depend on any variable.
+func (h *HeatInput) Vars() []int { return nil }
+
+// Eval adds Q into the node.
+func (h *HeatInput) Eval(_ *State, l *Local) { l.R[0] += h.Q }
 
 // Power returns Q.
 func (h *HeatInput) Power(*State) float64 { return h.Q }
+
+// Paths returns none: a source is where heat starts, not a path.
+func (h *HeatInput) Paths(*State) []Path { return nil }

@@ -8,50 +8,67 @@ import (
 	"gonum.org/v1/gonum/mat"
 )
 
-// recorder is a Stamper that keeps the heat into each node and a dense
-// Jacobian, for tests.
+// recorder keeps the flow into each equation and a dense Jacobian, for
+// tests: an element's Local scattered into vectors over all variables.
 type recorder struct {
 	q   []float64
 	jac *mat.Dense
 }
 
-func newRecorder(n int) *recorder {
-	return &recorder{q: make([]float64, n), jac: mat.NewDense(n, n, nil)}
-}
-
-func (r *recorder) AddHeat(n int, q float64) { r.q[n] += q }
-func (r *recorder) AddDeriv(n, m int, d float64) {
-	r.jac.Set(n, m, r.jac.At(n, m)+d)
-}
-
-// stampAt stamps el at temperatures t (nodes numbered 0..len(t)-1).
-func stampAt(el Element, env *Env, t []float64) *recorder {
-	r := newRecorder(len(t))
-	el.Stamp(&State{T: t, Env: env}, r)
+// stampAt evaluates el at the variables x (numbered 0..len(x)-1).
+func stampAt(el Element, env *Env, x []float64) *recorder {
+	n := len(x)
+	r := &recorder{q: make([]float64, n), jac: mat.NewDense(n, n, nil)}
+	rows, vars := el.Rows(), el.Vars()
+	l := NewLocal(len(rows), len(vars), true)
+	el.Eval(&State{X: x, Env: env}, l)
+	for a, i := range rows {
+		r.q[i] += l.R[a]
+		for b, j := range vars {
+			r.jac.Set(i, j, r.jac.At(i, j)+l.J[a*len(vars)+b])
+		}
+	}
 	return r
 }
 
 var testEnv = &Env{Pressure: 101325, Gravity: StandardGravity}
 
 // checkJacobian compares the stamped Jacobian of el with a central finite
-// difference of its stamped heat flows (gonum diff/fd), entry by entry, at
-// temperatures t. The tolerance is relative to the largest entry.
-func checkJacobian(t *testing.T, name string, el Element, temps []float64, tol float64) {
+// difference of its stamped flows (gonum diff/fd), entry by entry, at the
+// variables x. Each variable is differenced relative to its own size (so a
+// mass flow of grams per second and a temperature of hundreds of kelvin are
+// both stepped sensibly). The tolerance is relative to the largest entry of
+// each column.
+func checkJacobian(t *testing.T, name string, el Element, x []float64, tol float64) {
 	t.Helper()
-	n := len(temps)
-	got := stampAt(el, testEnv, temps).jac
-	want := mat.NewDense(n, n, nil)
-	fd.Jacobian(want, func(y, x []float64) {
-		copy(y, stampAt(el, testEnv, x).q)
-	}, temps, &fd.JacobianSettings{Formula: fd.Central, Step: 1e-4})
-	scale := mat.Norm(want, math.Inf(1))
-	if scale == 0 {
-		scale = 1
+	n := len(x)
+	got := stampAt(el, testEnv, x).jac
+	sc := make([]float64, n)
+	y0 := make([]float64, n)
+	for j, v := range x {
+		sc[j] = math.Max(math.Abs(v), 1e-12)
+		y0[j] = v / sc[j]
 	}
-	for i := 0; i < n; i++ {
-		for j := 0; j < n; j++ {
-			if d := math.Abs(got.At(i, j) - want.At(i, j)); d > tol*scale {
-				t.Errorf("%s: ∂q%d/∂T%d = %.10g, finite difference %.10g", name, i, j, got.At(i, j), want.At(i, j))
+	want := mat.NewDense(n, n, nil)
+	xs := make([]float64, n)
+	fd.Jacobian(want, func(q, y []float64) {
+		for j := range y {
+			xs[j] = y[j] * sc[j]
+		}
+		copy(q, stampAt(el, testEnv, xs).q)
+	}, y0, &fd.JacobianSettings{Formula: fd.Central, Step: 1e-6})
+	for j := 0; j < n; j++ {
+		col := 0.0
+		for i := 0; i < n; i++ {
+			want.Set(i, j, want.At(i, j)/sc[j])
+			col = math.Max(col, math.Abs(want.At(i, j)))
+		}
+		if col == 0 {
+			col = 1
+		}
+		for i := 0; i < n; i++ {
+			if d := math.Abs(got.At(i, j) - want.At(i, j)); d > tol*col {
+				t.Errorf("%s: ∂q%d/∂x%d = %.10g, finite difference %.10g", name, i, j, got.At(i, j), want.At(i, j))
 			}
 		}
 	}

@@ -1,8 +1,8 @@
 package elements
 
-// Stream carries air from node Up to node Down at a given mass flow, with the
-// enthalpy it holds: the upwind (donor-cell) form of the energy equation of
-// a flowing fluid,
+// Stream carries air from node Up to node Down at the mass flow of
+// variable Flow, with the enthalpy it holds: the upwind (donor-cell) form
+// of the energy equation of a flowing fluid,
 //
 //	H = ṁ·c_p·(T_Up − T_ref),
 //
@@ -14,24 +14,39 @@ package elements
 // every balance and only sets the reported value.
 type Stream struct {
 	Up, Down int
-	MassFlow float64 // kg/s
+	Flow     int // the variable holding the mass flow, kg/s
 }
 
-// Nodes returns Up and Down.
-func (s *Stream) Nodes() []int { return []int{s.Up, s.Down} }
+// Rows returns Up and Down.
+func (s *Stream) Rows() []int { return []int{s.Up, s.Down} }
 
-// Stamp moves the enthalpy from Up to Down.
-func (s *Stream) Stamp(st *State, out Stamper) {
-	c := s.MassFlow * st.Env.AirCp
-	stampPair(out, s.Up, s.Down, c*(st.T[s.Up]-st.Env.AmbientT), c, 0)
+// Vars returns Up, Down and Flow.
+func (s *Stream) Vars() []int { return []int{s.Up, s.Down, s.Flow} }
+
+// Eval moves the enthalpy from Up to Down.
+func (s *Stream) Eval(st *State, l *Local) {
+	m := st.X[s.Flow]
+	rise := st.X[s.Up] - st.Env.AmbientT
+	c := m * st.Env.AirCp
+	stampPair(l, c*rise, c, 0)
+	dm := st.Env.AirCp * rise
+	l.D(0, 2, -dm)
+	l.D(1, 2, dm)
+}
+
+// Paths returns the heat the air carries above ambient.
+func (s *Stream) Paths(st *State) []Path {
+	h := st.X[s.Flow] * st.Env.AirCp * (st.X[s.Up] - st.Env.AmbientT)
+	return []Path{{From: s.Up, To: s.Down, Heat: h, Carried: true}}
 }
 
 // Report gives the mass flow, the capacity rate ṁc_p and the air
 // temperature carried.
 func (s *Stream) Report(st *State) Report {
+	m := st.X[s.Flow]
 	return Report{Details: []Detail{
-		{Name: "mass_flow", Value: s.MassFlow, Unit: "kg/s"},
-		{Name: "capacity_rate", Value: s.MassFlow * st.Env.AirCp, Unit: "W/K"},
-		{Name: "air_temperature", Value: st.T[s.Up] - 273.15, Unit: "degC"},
+		{Name: "mass_flow", Value: m, Unit: "kg/s"},
+		{Name: "capacity_rate", Value: m * st.Env.AirCp, Unit: "W/K"},
+		{Name: "air_temperature", Value: st.X[s.Up] - 273.15, Unit: "degC"},
 	}}
 }

@@ -69,8 +69,10 @@ type Stream struct {
 	MassFlow float64 // kg/s
 }
 
+func (s *Stream) air(l *LinkSpec) (string, string, float64) { return l.From, l.To, s.MassFlow }
+
 func (s *Stream) element(e linkEnv) (elements.Element, error) {
-	return &elements.Stream{Up: e.from, Down: e.to, MassFlow: s.MassFlow}, nil
+	return &elements.Stream{Up: e.from, Down: e.to, Flow: e.givenFlow(s.MassFlow)}, nil
 }
 
 func parseStream(o *object, m *Model) LinkParams {
@@ -89,8 +91,10 @@ type Channel struct {
 	Upstream float64 // length of the same channels before this segment, m
 }
 
+func (c *Channel) air(l *LinkSpec) (string, string, float64) { return l.Others[0], l.To, c.MassFlow }
+
 func (c *Channel) element(e linkEnv) (elements.Element, error) {
-	return &elements.Channel{Wall: e.from, Inlet: e.others[0], Outlet: e.to, MassFlow: c.MassFlow,
+	return &elements.Channel{Wall: e.from, Inlet: e.others[0], Outlet: e.to, Flow: e.givenFlow(c.MassFlow),
 		Geometry: c.Geometry, Options: c.Options, Upstream: c.Upstream}, nil
 }
 

@@ -75,9 +75,10 @@ func BenchmarkEvaluateChannels(b *testing.B) {
 	p := net.Steady()
 	x := p.InitialGuess()
 	f := make([]float64, len(x))
-	jac := p.Jacobian()
+	mag := make([]float64, len(x))
+	jac := p.Pattern()
 	for b.Loop() {
-		if _, err := p.Evaluate(x, f, jac); err != nil {
+		if err := p.Evaluate(x, f, jac, mag); err != nil {
 			b.Fatal(err)
 		}
 	}

@@ -10,12 +10,14 @@ import (
 	"github.com/heatgraph/heatgraph/elements/dual"
 )
 
-// Node is a node of the assembled network.
+// Node is a node of the assembled network. Its temperature is the
+// network's variable of the same index.
 type Node struct {
 	ID          string
 	Kind        NodeKind
 	Temperature float64 // K; the given temperature of a Fixed node
 	Power       float64 // heat input, W
+	Capacity    float64 // heat capacity, J/K; 0 when none is given
 	Limit       float64 // K, when HasLimit
 	HasLimit    bool
 	Note        string
@@ -31,24 +33,33 @@ type Link struct {
 	ID       string
 	Kind     string // a link kind, or "junction-case"/"junction-board" for component legs
 	From, To int    // node indices
-	Inlet    int    // node index of a channel's inlet air, −1 for other links
 	Note     string
 	Line     int
 	Element  elements.Element
 }
 
-// Network is a model assembled into nodes and elements, ready to solve. It
-// is not changed by solving, so one Network may be solved many times.
+// Network is a model assembled into variables and elements, ready to solve.
+// It is not changed by solving, so one Network may be solved many times,
+// at once too.
+//
+// Every quantity is a variable (Vars): the temperature of node i is
+// variable i; pressures and mass flows follow. Every element reads
+// variables and adds to the equations paired with them. Variables that are
+// not given are the unknowns of the solve; the pattern of their Jacobian,
+// and where each element's entries land in it, is worked out once, here.
 type Network struct {
-	Model   *Model
-	Nodes   []Node
-	Links   []Link
-	Index   map[string]int // node id to index in Nodes
-	Env     elements.Env
-	sources []*elements.HeatInput
-	free    []int // node index -> unknown index, -1 for fixed nodes
-	unknown []int // unknown index -> node index
-	all     []elements.Element
+	Model *Model
+	Nodes []Node
+	Links []Link
+	Index map[string]int // node id to index in Nodes
+	Vars  []Variable
+	Env   elements.Env
+
+	sources []elements.Element // the heat inputs of nodes and components
+	stores  []elements.Element // the heat capacities of nodes
+	free    []int              // variable -> unknown index, -1 for given variables
+	unknown []int              // unknown index -> variable
+	asm     *assembly
 }
 
 // Load reads, checks and assembles a model file. Any problem in the file,
@@ -79,17 +90,25 @@ func Build(m *Model) (*Network, error) {
 		i := len(net.Nodes)
 		net.Nodes = append(net.Nodes, n)
 		net.Index[n.ID] = i
+		v := Variable{Kind: TemperatureVar, Owner: n.ID, Given: n.Fixed(), Value: m.Ambient.Temperature}
+		if n.Fixed() {
+			v.Value = n.Temperature
+		}
+		net.addVar(v)
 		if n.Power != 0 {
 			net.sources = append(net.sources, &elements.HeatInput{Node: i, Q: n.Power})
+		}
+		if n.Capacity > 0 {
+			net.stores = append(net.stores, &elements.Capacity{Node: i, C: n.Capacity})
 		}
 		return i
 	}
 	add(Node{ID: AmbientID, Kind: Fixed, Temperature: m.Ambient.Temperature, Line: m.Ambient.Line, Note: "ambient air and surroundings"})
 	for _, s := range m.Nodes {
-		add(Node{ID: s.ID, Kind: s.Kind, Temperature: s.Temperature, Power: s.Power, Limit: s.Limit, HasLimit: s.HasLimit, Note: s.Note, Line: s.Line})
+		add(Node{ID: s.ID, Kind: s.Kind, Temperature: s.Temperature, Power: s.Power, Capacity: s.Capacity, Limit: s.Limit, HasLimit: s.HasLimit, Note: s.Note, Line: s.Line})
 	}
 	for _, c := range m.Components {
-		j := add(Node{ID: c.ID, Kind: Junction, Power: c.Power, Limit: c.Limit, HasLimit: c.HasLimit, Note: c.Note, Line: c.Line})
+		j := add(Node{ID: c.ID, Kind: Junction, Power: c.Power, Capacity: c.Capacity, Limit: c.Limit, HasLimit: c.HasLimit, Note: c.Note, Line: c.Line})
 		legs := []struct {
 			kind, end, suffix string
 			r                 float64
@@ -103,7 +122,7 @@ func Build(m *Model) (*Network, error) {
 				problems = append(problems, Problem{File: m.File, Line: c.Line, Field: "components[" + c.ID + "]", Message: err.Error()})
 				continue
 			}
-			net.Links = append(net.Links, Link{ID: c.ID + leg.suffix, Kind: leg.kind, From: j, To: net.Index[leg.end], Inlet: -1, Line: c.Line, Element: el})
+			net.Links = append(net.Links, Link{ID: c.ID + leg.suffix, Kind: leg.kind, From: j, To: net.Index[leg.end], Line: c.Line, Element: el})
 		}
 	}
 	for _, l := range m.Links {
@@ -112,16 +131,12 @@ func Build(m *Model) (*Network, error) {
 		for i, id := range l.Others {
 			others[i] = net.Index[id]
 		}
-		el, err := l.Params.element(linkEnv{from: a, to: b, others: others, env: &net.Env})
+		el, err := l.Params.element(linkEnv{from: a, to: b, others: others, env: &net.Env, net: net, link: l.ID})
 		if err != nil {
 			problems = append(problems, Problem{File: m.File, Line: l.Line, Field: "links[" + l.ID + "]", Message: err.Error()})
 			continue
 		}
-		inlet := -1
-		if l.Kind == "channel" {
-			inlet = others[0]
-		}
-		net.Links = append(net.Links, Link{ID: l.ID, Kind: l.Kind, From: a, To: b, Inlet: inlet, Note: l.Note, Line: l.Line, Element: el})
+		net.Links = append(net.Links, Link{ID: l.ID, Kind: l.Kind, From: a, To: b, Note: l.Note, Line: l.Line, Element: el})
 	}
 	for _, e := range m.Enclosures {
 		links, err := net.enclosureLinks(e)
@@ -135,16 +150,16 @@ func Build(m *Model) (*Network, error) {
 	if len(problems) > 0 {
 		return nil, problems.sorted()
 	}
-	net.free = make([]int, len(net.Nodes))
-	for i := range net.Nodes {
-		if net.Nodes[i].Fixed() {
+	net.free = make([]int, len(net.Vars))
+	for i := range net.Vars {
+		if net.Vars[i].Given {
 			net.free[i] = -1
 			continue
 		}
 		net.free[i] = len(net.unknown)
 		net.unknown = append(net.unknown, i)
 	}
-	net.collect()
+	net.asm = net.assemble()
 	return net, nil
 }
 
@@ -252,8 +267,5 @@ func quoteList(ids []string) string {
 	return strings.Join(q, ", ")
 }
 
-// Unknowns returns the number of nodes whose temperature the solve finds.
+// Unknowns returns the number of unknowns the solve finds.
 func (net *Network) Unknowns() int { return len(net.unknown) }
-
-// Sources returns the heat inputs of the network.
-func (net *Network) Sources() []*elements.HeatInput { return net.sources }

@@ -317,7 +317,7 @@ func (net *Network) enclosureLinks(e EnclosureSpec) ([]Link, error) {
 	links := make([]Link, len(pairs))
 	for k, p := range pairs {
 		links[k] = Link{ID: fmt.Sprintf("%s:%s~%s", e.ID, name(p.I), name(p.J)), Kind: "enclosure",
-			From: p.Link.A, To: p.Link.B, Inlet: -1, Line: e.Line, Element: p.Link}
+			From: p.Link.A, To: p.Link.B, Line: e.Line, Element: p.Link}
 	}
 	return links, nil
 }

@@ -5,14 +5,20 @@ import (
 	"math"
 )
 
+// airCarrier is implemented by the parameters of link kinds that carry air
+// at a given mass flow.
+type airCarrier interface {
+	// air returns the node the air comes from, the node it goes to, and
+	// the mass flow, kg/s, of the link l.
+	air(l *LinkSpec) (up, down string, mdot float64)
+}
+
 // airflow returns the air a link carries: from the node up to the node
 // down at mdot kg/s. ok is false for links that carry no air.
 func (l *LinkSpec) airflow() (up, down string, mdot float64, ok bool) {
-	switch p := l.Params.(type) {
-	case *Stream:
-		return l.From, l.To, p.MassFlow, true
-	case *Channel:
-		return l.Others[0], l.To, p.MassFlow, true
+	if c, is := l.Params.(airCarrier); is {
+		up, down, mdot = c.air(l)
+		return up, down, mdot, true
 	}
 	return "", "", 0, false
 }

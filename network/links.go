@@ -18,6 +18,14 @@ type linkEnv struct {
 	from, to int   // node indices of the link's ends
 	others   []int // node indices of its other ends (a channel's inlet), in the order of linkKind.ends
 	env      *elements.Env
+	net      *Network
+	link     string // the link's id, naming its variables
+}
+
+// givenFlow adds a mass-flow variable of the link, held at mdot kg/s, and
+// returns it.
+func (e linkEnv) givenFlow(mdot float64) int {
+	return e.net.addVar(Variable{Kind: MassFlowVar, Owner: e.link, Given: true, Value: mdot})
 }
 
 // linkKind describes one kind of link in the model file.

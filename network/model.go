@@ -49,6 +49,7 @@ type NodeSpec struct {
 	ID          string
 	Kind        NodeKind // Solid, Fixed or Air
 	Power       float64  // heat input, W (Solid only)
+	Capacity    float64  // heat capacity, J/K; 0 when not given
 	Temperature float64  // K (Fixed only)
 	Limit       float64  // highest allowed temperature, K (when HasLimit)
 	HasLimit    bool
@@ -62,6 +63,7 @@ type NodeSpec struct {
 type ComponentSpec struct {
 	ID       string
 	Power    float64 // dissipated at the junction, W
+	Capacity float64 // heat capacity of the junction, J/K; 0 when not given
 	RJC      float64 // junction to case, K/W (when Case is set)
 	RJB      float64 // junction to board, K/W (when Board is set)
 	Case     string  // node at the case top; "" for an adiabatic top

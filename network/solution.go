@@ -36,15 +36,22 @@ type LinkResult struct {
 	ID       string
 	Kind     string
 	From, To string
-	Heat     float64 // W, positive from From to To
-	// Inlet and Carried describe a channel's air: the node it comes from
-	// and the heat it brings to the outlet (To) above ambient, W. Inlet is
-	// "" for other links.
-	Inlet    string
-	Carried  float64
+	Heat     float64 // W, positive from From to To: the link's main path
+	// Paths are the ways heat goes through the link (a channel has two:
+	// from the wall to the air, and the heat the air brings from the
+	// inlet); the first is the main path, Heat.
+	Paths    []PathResult
 	Details  []elements.Detail
 	Warnings []string
 	Line     int
+}
+
+// PathResult is one heat path of a link: Heat watts from From to To.
+// Carried marks heat carried by moving air (its enthalpy above ambient).
+type PathResult struct {
+	From, To string
+	Heat     float64
+	Carried  bool
 }
 
 // BoundaryHeat is the heat leaving the network through one fixed node.
@@ -64,24 +71,36 @@ type Balance struct {
 // its limit, every link's heat, the energy balance and the warnings.
 type Solution struct {
 	Net      *Network
-	T        []float64 // every node, K
+	X        []float64 // every variable, SI
+	T        []float64 // every node's temperature, K (the first variables)
 	Nodes    []NodeResult
 	Links    []LinkResult
 	Balance  Balance
+	Residual Residual
 	Warnings []string
 }
 
-// Solution evaluates the network at the free-node temperatures x (as
-// returned by the solver) and reports on every node and link.
+// Residual is the largest remaining imbalance of one equation at a
+// solution, relative to the flows that meet in it.
+type Residual struct {
+	Variable string  // what the equation balances, e.g. `temperature of "cpu"`
+	Value    float64 // in the equation's unit (W for a heat balance)
+	Unit     string
+	Scaled   float64 // Value relative to the sum of |terms| of the equation
+}
+
+// Solution evaluates the network at the unknowns x (as returned by the
+// solver) and reports on every node and link.
 func (net *Network) Solution(x []float64) *Solution {
 	p := net.Steady()
-	f := make([]float64, p.Size())
-	if _, err := p.Evaluate(x, f, nil); err != nil {
+	if err := p.load(x); err != nil {
 		// x came from a converged solve, which evaluated it.
 		panic(fmt.Sprintf("network: solution state cannot be evaluated: %v", err))
 	}
-	sol := &Solution{Net: net, T: append([]float64(nil), p.temps...)}
-	state := &elements.State{T: sol.T, Env: &net.Env}
+	p.ev.eval(&p.state, p.sum, p.mag, nil)
+	sol := &Solution{Net: net, X: append([]float64(nil), p.x...)}
+	sol.T = sol.X[:len(net.Nodes)]
+	state := &elements.State{X: sol.X, Env: &net.Env}
 	margin := net.Model.RequiredMargin
 	for i, n := range net.Nodes {
 		r := NodeResult{ID: n.ID, Kind: n.Kind, Temperature: sol.T[i], Power: n.Power, Limit: n.Limit, HasLimit: n.HasLimit, Line: n.Line}
@@ -98,13 +117,26 @@ func (net *Network) Solution(x []float64) *Solution {
 		}
 		sol.Nodes = append(sol.Nodes, r)
 	}
-	rec := &heatRecorder{heat: map[int]float64{}}
+	for _, u := range net.unknown {
+		v := net.Vars[u]
+		sc := math.Abs(p.sum[u]) / math.Max(p.mag[u], math.SmallestNonzeroFloat64)
+		if p.sum[u] == 0 {
+			sc = 0
+		}
+		if sol.Residual.Variable == "" || sc > sol.Residual.Scaled {
+			sol.Residual = Residual{Variable: v.Name(), Value: p.sum[u], Unit: varKinds[v.Kind].EquationUnit, Scaled: sc}
+		}
+	}
 	for _, l := range net.Links {
-		clear(rec.heat)
-		l.Element.Stamp(state, rec)
-		lr := LinkResult{ID: l.ID, Kind: l.Kind, From: net.Nodes[l.From].ID, To: net.Nodes[l.To].ID, Heat: -rec.heat[l.From], Line: l.Line}
-		if l.Inlet >= 0 {
-			lr.Inlet, lr.Carried = net.Nodes[l.Inlet].ID, -rec.heat[l.Inlet]
+		lr := LinkResult{ID: l.ID, Kind: l.Kind, From: net.Nodes[l.From].ID, To: net.Nodes[l.To].ID, Line: l.Line}
+		for _, path := range net.paths(l.Element, state) {
+			lr.Paths = append(lr.Paths, PathResult{From: net.Nodes[path.From].ID, To: net.Nodes[path.To].ID, Heat: path.Heat, Carried: path.Carried})
+		}
+		if len(lr.Paths) > 0 {
+			lr.Heat = lr.Paths[0].Heat
+			if lr.Paths[0].From != lr.From {
+				lr.Heat = -lr.Heat
+			}
 		}
 		if rep, ok := l.Element.(elements.Reporter); ok {
 			report := rep.Report(state)
@@ -116,18 +148,36 @@ func (net *Network) Solution(x []float64) *Solution {
 		sol.Links = append(sol.Links, lr)
 	}
 	for _, s := range net.sources {
-		sol.Balance.In += s.Power(state)
+		if src, ok := s.(elements.Source); ok {
+			sol.Balance.In += src.Power(state)
+		}
 	}
 	out := 0.0
 	for i, n := range net.Nodes {
 		if n.Fixed() {
-			// p.heat holds what the links put into each node.
-			sol.Balance.Out = append(sol.Balance.Out, BoundaryHeat{Node: n.ID, Heat: p.heat[i]})
-			out += p.heat[i]
+			// p.sum holds what the elements put into each node.
+			sol.Balance.Out = append(sol.Balance.Out, BoundaryHeat{Node: n.ID, Heat: p.sum[i]})
+			out += p.sum[i]
 		}
 	}
 	sol.Balance.Imbalance = sol.Balance.In - out
 	return sol
+}
+
+// paths returns the heat paths of an element: its own, or, for an element
+// with two rows, one path from the first to the second carrying what
+// leaves the first.
+func (net *Network) paths(el elements.Element, s *elements.State) []elements.Path {
+	if pr, ok := el.(elements.PathReporter); ok {
+		return pr.Paths(s)
+	}
+	rows := el.Rows()
+	if len(rows) != 2 {
+		return nil
+	}
+	l := elements.NewLocal(2, len(el.Vars()), false)
+	el.Eval(s, l)
+	return []elements.Path{{From: rows[0], To: rows[1], Heat: -l.R[0]}}
 }
 
 // Exceeded returns the nodes above their limits.
@@ -151,8 +201,3 @@ func (b Balance) MaxImbalance() float64 {
 	return 1e-6 * math.Max(scale, 1e-3)
 }
 
-// heatRecorder is a Stamper that keeps only heat flows.
-type heatRecorder struct{ heat map[int]float64 }
-
-func (r *heatRecorder) AddHeat(n int, q float64)   { r.heat[n] += q }
-func (r *heatRecorder) AddDeriv(int, int, float64) {}

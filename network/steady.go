@@ -5,141 +5,148 @@ import (
 	"math"
 
 	"github.com/heatgraph/heatgraph/elements"
+	"github.com/heatgraph/heatgraph/solve"
 	"github.com/heatgraph/heatgraph/sparse"
 )
 
-// Steady is the steady energy balance of a network in the form the Newton
-// solver takes: the unknowns are the temperatures of the free nodes (K), the
-// residuals the net heat flowing into each of them (W). Each Problem has its
-// own work space, so several may solve the same Network at once.
+// Steady is the steady balance of a network in the form the Newton solver
+// takes: the unknowns are the variables that are not given (temperatures
+// of the free nodes, K; pressures, Pa; mass flows, kg/s), the residuals
+// the balances paired with them (net heat into each free node, W, ...).
+// Each Steady has its own work space, so several may solve the same
+// Network at once.
 type Steady struct {
-	net     *Network
-	temps   []float64 // every node, K
-	heat    []float64 // net heat into every node, W
-	input   float64   // total magnitude of the heat inputs, W
-	stamper assembler
+	net   *Network
+	x     []float64 // every variable
+	sum   []float64 // net flow into every variable's equation
+	mag   []float64 // magnitude of the terms of every equation
+	ev    evaluator
+	state elements.State
 }
 
 // Steady returns a new steady-state problem for the network.
 func (net *Network) Steady() *Steady {
 	p := &Steady{
-		net:   net,
-		temps: make([]float64, len(net.Nodes)),
-		heat:  make([]float64, len(net.Nodes)),
+		net: net,
+		x:   make([]float64, len(net.Vars)),
+		sum: make([]float64, len(net.Vars)),
+		mag: make([]float64, len(net.Vars)),
+		ev:  evaluator{a: net.asm},
 	}
-	for i, n := range net.Nodes {
-		if n.Fixed() {
-			p.temps[i] = n.Temperature
-		}
+	for i, v := range net.Vars {
+		p.x[i] = v.Value
 	}
-	for _, s := range net.sources {
-		p.input += math.Abs(s.Q)
-	}
-	p.stamper = assembler{heat: p.heat, free: net.free}
+	p.state = elements.State{X: p.x, Env: &net.Env}
 	return p
 }
 
-// Size returns the number of free nodes.
+// Size returns the number of unknowns.
 func (p *Steady) Size() int { return len(p.net.unknown) }
 
-// Jacobian returns a matrix with the pattern of the network's links.
-func (p *Steady) Jacobian() *sparse.Matrix {
-	b := sparse.NewBuilder(p.Size())
-	for _, el := range p.net.elements() {
-		nodes := el.Nodes()
-		for _, i := range nodes {
-			for _, j := range nodes {
-				if fi, fj := p.net.free[i], p.net.free[j]; fi >= 0 && fj >= 0 {
-					b.Mark(fi, fj)
-				}
-			}
-		}
-	}
-	return b.Build()
-}
+// Kinds returns the kinds of variables.
+func (p *Steady) Kinds() []solve.Kind { return varKinds }
+
+// KindOf returns the kind of unknown i.
+func (p *Steady) KindOf(i int) int { return int(p.net.Vars[p.net.unknown[i]].Kind) }
+
+// Name names unknown i for messages.
+func (p *Steady) Name(i int) string { return p.net.Vars[p.net.unknown[i]].Name() }
+
+// Variable returns the network variable of unknown i.
+func (p *Steady) Variable(i int) int { return p.net.unknown[i] }
+
+// Pattern returns a matrix with the Jacobian's pattern.
+func (p *Steady) Pattern() *sparse.Matrix { return p.net.asm.pattern.Clone() }
+
+// Jacobian returns a matrix with the Jacobian's pattern.
+//
+// Deprecated: use Pattern.
+func (p *Steady) Jacobian() *sparse.Matrix { return p.Pattern() }
+
+// SetTime sets the time the elements see, s.
+func (p *Steady) SetTime(t float64) { p.state.Time = t }
 
 // InitialGuess returns a starting state: every free node at the ambient
-// temperature.
+// temperature, every other unknown at its starting value.
 func (p *Steady) InitialGuess() []float64 {
 	x := make([]float64, p.Size())
-	for i := range x {
-		x[i] = p.net.Model.Ambient.Temperature
+	for u, v := range p.net.unknown {
+		x[u] = p.net.Vars[v].Value
 	}
 	return x
 }
 
-// Evaluate stamps every element at free-node temperatures x, sets f to the
-// net heat into each free node and, when jac is given, fills the Jacobian.
-// The residual scale it returns is the larger of the total heat input and
-// the heat passing through the fixed-temperature nodes, so that models
-// driven only by boundary temperatures are judged fairly too.
-func (p *Steady) Evaluate(x, f []float64, jac *sparse.Matrix) (float64, error) {
-	for u, i := range p.net.unknown {
+// load puts the unknowns x into the full variable vector, checking that
+// every temperature is physical.
+func (p *Steady) load(x []float64) error {
+	for u, v := range p.net.unknown {
 		t := x[u]
-		if !(t > 0) || math.IsInf(t, 0) {
-			return 0, fmt.Errorf("node %q: temperature %g K is not physical", p.net.Nodes[i].ID, t)
+		if p.net.Vars[v].Kind == TemperatureVar && (!(t > 0) || math.IsInf(t, 0)) {
+			return fmt.Errorf("node %q: temperature %g K is not physical", p.net.Vars[v].Owner, t)
 		}
-		p.temps[i] = t
+		if math.IsNaN(t) || math.IsInf(t, 0) {
+			return fmt.Errorf("%s: %g is not finite", p.net.Vars[v].Name(), t)
+		}
+		p.x[v] = t
 	}
-	p.stamp(jac)
-	for u, i := range p.net.unknown {
-		f[u] = p.heat[i]
+	return nil
+}
+
+// Evaluate evaluates every element at the unknowns x: f is the net flow
+// into each unknown's equation (heat into each free node, W, ...), mag the
+// magnitude of the terms of each, and jac, when given, the Jacobian.
+func (p *Steady) Evaluate(x, f []float64, jac *sparse.Matrix, mag []float64) error {
+	if err := p.load(x); err != nil {
+		return err
 	}
-	through := 0.0
-	for i, n := range p.net.Nodes {
-		if n.Fixed() {
-			through += math.Abs(p.heat[i])
+	var m []float64
+	if mag != nil {
+		m = p.mag
+	}
+	p.ev.eval(&p.state, p.sum, m, jac)
+	for u, v := range p.net.unknown {
+		f[u] = p.sum[v]
+		if mag != nil {
+			mag[u] = p.mag[v]
 		}
 	}
-	return math.Max(math.Max(p.input, through/2), minResidualScale), nil
+	return nil
 }
 
-// minResidualScale keeps the residual scale of a model with no heat flow at
-// all (every fixed node at one temperature, no inputs) from being zero.
-const minResidualScale = 1e-9 // W
-
-// stamp evaluates every element at p.temps into p.heat and jac.
-func (p *Steady) stamp(jac *sparse.Matrix) {
-	clear(p.heat)
-	if jac != nil {
-		jac.Zero()
+// Stored sets e to the energy stored at each unknown's equation (J) and,
+// when m is given, m to its derivatives (the heat capacities, J/K, in the
+// Jacobian's pattern).
+func (p *Steady) Stored(x, e []float64, m *sparse.Matrix) error {
+	if err := p.load(x); err != nil {
+		return err
 	}
-	p.stamper.jac = jac
-	s := &elements.State{T: p.temps, Env: &p.net.Env}
-	for _, el := range p.net.elements() {
-		el.Stamp(s, &p.stamper)
+	p.ev.stored(&p.state, p.sum, m)
+	for u, v := range p.net.unknown {
+		e[u] = p.sum[v]
 	}
+	return nil
 }
 
-// elements returns every element: heat inputs, then links.
-func (net *Network) elements() []elements.Element { return net.all }
-
-// collect gathers every element of the network: heat inputs, then links.
-func (net *Network) collect() {
-	net.all = make([]elements.Element, 0, len(net.sources)+len(net.Links))
-	for _, s := range net.sources {
-		net.all = append(net.all, s)
-	}
-	for _, l := range net.Links {
-		net.all = append(net.all, l.Element)
-	}
-}
-
-// assembler is the Stamper that gathers heat for every node and Jacobian
-// entries for pairs of free nodes.
-type assembler struct {
-	heat []float64
-	free []int
-	jac  *sparse.Matrix
-}
-
-func (a *assembler) AddHeat(n int, q float64) { a.heat[n] += q }
-
-func (a *assembler) AddDeriv(n, m int, d float64) {
-	if a.jac == nil {
+// Capacity sets c to each unknown's own heat capacity, J/K (0 where none
+// is given), for the solver's pseudo-transient steps.
+func (p *Steady) Capacity(x, c []float64) {
+	clear(c)
+	if len(p.net.asm.storing) == 0 {
 		return
 	}
-	if fn, fm := a.free[n], a.free[m]; fn >= 0 && fm >= 0 {
-		a.jac.Add(fn, fm, d)
+	m := p.Pattern()
+	e := make([]float64, len(c))
+	if err := p.Stored(x, e, m); err != nil {
+		return
 	}
+	for i := range c {
+		c[i] = m.At(i, i)
+	}
+}
+
+// flows evaluates the network at the full variable vector (a solution)
+// and returns the net flow into every variable's equation.
+func (p *Steady) flows() []float64 {
+	p.ev.eval(&p.state, p.sum, nil, nil)
+	return p.sum
 }

@@ -12,21 +12,42 @@ import (
 // ill-conditioned to solve.
 var ErrSingular = errors.New("matrix is singular to working precision")
 
-// LinearSolver solves A·x = b for the Newton step.
+// LinearSolver solves A·x = b for the Newton step, in three phases, so that
+// work that depends only on the sparsity pattern is done once per problem:
+// Analyse (ordering, symbolic factorization) once, Factorize for each new
+// set of values, Solve for each right-hand side.
 type LinearSolver interface {
-	// Factorize prepares to solve with a. It must not keep a reference
-	// that a later change of a would corrupt.
+	// Analyse prepares for matrices of a's pattern. It is called once,
+	// before the first Factorize; the values of a are not used.
+	Analyse(a *sparse.Matrix) error
+	// Factorize prepares to solve with a's current values. It must not
+	// keep a reference that a later change of a's values would corrupt.
+	// A singular matrix gives an error wrapping ErrSingular.
 	Factorize(a *sparse.Matrix) error
 	// Solve sets x to the solution of A·x = b for the last factorized A.
 	Solve(x, b []float64) error
 }
 
+// DenseLimit is the most unknowns the dense LU takes: its memory grows as n²
+// and its time as n³ (8 bytes × 5000² = 200 MB).
+const DenseLimit = 5000
+
+// ErrTooLarge is returned when a problem is too large for a solver.
+var ErrTooLarge = errors.New("problem too large for the linear solver")
+
+// Auto returns the linear solver for a problem of n unknowns.
+func Auto(n int) LinearSolver {
+	return NewDenseLU()
+}
+
 // DenseLU solves with a dense LU factorization with partial pivoting
 // (gonum's mat.LU). Its cost grows as n³: it suits networks up to a few
-// thousand nodes.
+// thousand unknowns, and refuses more than DenseLimit.
 type DenseLU struct {
 	// MaxCondition is the largest estimated condition number accepted; a
-	// larger one is reported as ErrSingular. Default 1e14.
+	// larger one is reported as ErrSingular. Default 1e14. The matrices
+	// Newton passes are diagonally scaled, so this judges the network, not
+	// the spread of its conductances.
 	MaxCondition float64
 
 	dense *mat.Dense
@@ -36,17 +57,30 @@ type DenseLU struct {
 // NewDenseLU returns a dense LU solver with default settings.
 func NewDenseLU() *DenseLU { return &DenseLU{MaxCondition: 1e14} }
 
-// Factorize copies a into a dense matrix and factorizes it.
+// Analyse allocates the dense matrix, after checking its size.
+func (d *DenseLU) Analyse(a *sparse.Matrix) error {
+	if a.N > DenseLimit {
+		return fmt.Errorf("%w: the dense LU takes at most %d unknowns, this problem has %d", ErrTooLarge, DenseLimit, a.N)
+	}
+	d.dense = mat.NewDense(max(a.N, 1), max(a.N, 1), nil)
+	return nil
+}
+
+// Factorize copies a into the dense matrix and factorizes it.
 func (d *DenseLU) Factorize(a *sparse.Matrix) error {
 	n := a.N
 	if d.dense == nil || d.dense.RawMatrix().Rows != n {
-		d.dense = mat.NewDense(n, n, nil)
+		if err := d.Analyse(a); err != nil {
+			return err
+		}
 	} else {
 		d.dense.Zero()
 	}
+	raw := d.dense.RawMatrix()
 	for i := 0; i < n; i++ {
+		row := raw.Data[i*raw.Stride : i*raw.Stride+n]
 		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
-			d.dense.Set(i, a.Col[k], a.Val[k])
+			row[a.Col[k]] = a.Val[k]
 		}
 	}
 	d.lu.Factorize(d.dense)

@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strings"
 
 	"github.com/heatgraph/heatgraph/sparse"
 )
@@ -12,169 +13,532 @@ import (
 type Result struct {
 	X          []float64  // the last state; a solution only if Reason is Converged
 	Reason     StopReason // why the iteration stopped
-	Iterations int        // Newton iterations taken
-	Residual   float64    // largest |F(X)|
-	Scaled     float64    // Residual divided by the scale at X
-	Step       float64    // largest |Δx| of the last iteration
-	Err        error      // the underlying error for SingularJacobian and InvalidStart
+	Iterations int        // Newton steps computed; the last one, when converged, only confirms it
+	Residual   float64    // largest |F(X)|, in mixed units when kinds differ
+	Scaled     float64    // largest |F_i(X)| relative to its equation's magnitude
+	Worst      int        // the equation with the largest scaled residual, −1 if none
+	Step       float64    // largest |Δx|/Scale of the last Newton step computed
+	// Kinds reports the convergence of each kind of unknown at X.
+	Kinds []KindResult
+	// Pseudo counts the pseudo-transient steps taken.
+	Pseudo int
+	// SingularAtSolution is set when the Jacobian is singular at X: some
+	// unknown has no slope there (a node whose only link is natural
+	// convection at zero temperature difference, say), so convergence
+	// rests on the residual test of each equation alone.
+	SingularAtSolution bool
+	// Floating lists the unknowns that no non-zero Jacobian entry joins to
+	// any given quantity when the Jacobian is singular: their values are
+	// undetermined.
+	Floating []int
+	Err      error // the underlying error, for the reasons that have one
+}
+
+// KindResult is the state of the unknowns of one kind at the end of a
+// solve.
+type KindResult struct {
+	Kind Kind
+	// Unknowns is how many unknowns are of this kind.
+	Unknowns int
+	// Step is the largest |Δx| of the last Newton step, in the kind's unit,
+	// at unknown StepAt (−1 when none).
+	Step   float64
+	StepAt int
+	// Residual is the largest |F_i| of the kind's equations, in the
+	// equation unit, at equation ResidualAt; Scaled the largest |F_i|
+	// relative to the equation's magnitude, at ScaledAt.
+	Residual   float64
+	ResidualAt int
+	Scaled     float64
+	ScaledAt   int
+	// Converged reports whether both tests hold for every unknown of the
+	// kind.
+	Converged bool
 }
 
 // Newton solves p's equations from the initial state x0 (which it does not
-// modify) by Newton's method with a backtracking line search on ‖F‖².
+// modify) by Newton's method with a line search.
 //
-// Each iteration solves J·p = −F (or, where J is singular, takes a
-// pseudo-transient step, see newtonStep), limits the step so that no
-// unknown moves by more than Settings.MaxChange, then halves the step until
-// the residual falls enough (Armijo's condition); a trial state outside the
-// problem's domain counts as no decrease. Close to the solution, where
-// round-off keeps the residual from falling further, a trial whose residual
-// is already within tolerance is accepted. The iteration converges when
-// both the last step and the scaled residual are below tolerance.
+// Each iteration solves J·Δx = −F at the current state x. The iteration
+// stops, converged, when at x both
+//   - every equation's residual is within Settings.ResidualTolerance of
+//     that equation's own magnitude (plus its kind's ResidualFloor), and
+//   - every component of the full Newton step Δx is within
+//     Settings.StepTolerance of its kind's Scale.
+//
+// Both are judged on the undamped Newton step computed at x, never on a
+// step the line search shortened: a damped step is short because the line
+// search made it so, not because x is close to the solution. Otherwise the
+// step is limited to each kind's MaxStep and the line search (Settings.
+// LineSearch) chooses how far to go along it, on the merit ½Σ(F_i/w_i)²,
+// each equation weighted by its magnitude.
+//
+// Where the Jacobian is singular (natural convection has zero slope at zero
+// temperature difference, which is where a thermal model starts), the
+// iteration takes a pseudo-transient step instead (Kelley & Keyes 1998,
+// Convergence analysis of pseudo-transient continuation, SIAM J. Numer.
+// Anal. 35): it solves (J − S/Δτ)·Δx = −F, with S the problem's real
+// capacities where it has them (Capacitive) and otherwise each equation's
+// magnitude per unit Scale, and Δτ such that the fastest unknown moves by
+// about Settings.PseudoStep of its Scale. Such a step is taken without a
+// decrease of the merit; it only has to land inside the problem's domain.
+//
+// The linear systems are solved with symmetric diagonal scaling, J̃ = DJD
+// with D_ii = 1/√|J_ii|, which keeps a symmetric Jacobian symmetric and
+// makes networks whose conductances span many decades well conditioned.
 func Newton(p Problem, x0 []float64, s Settings) Result {
 	s = s.withDefaults()
 	n := p.Size()
 	x := append([]float64(nil), x0...)
-	res := Result{X: x}
+	res := Result{X: x, Worst: -1}
+	kinds := p.Kinds()
+	kindOf := make([]int, n)
+	for i := range kindOf {
+		kindOf[i] = p.KindOf(i)
+	}
 	if n == 0 {
 		res.Reason = Converged
 		return res
 	}
-	f := make([]float64, n)
-	jac := p.Jacobian()
-	fscale, err := p.Evaluate(x, f, jac)
-	if err != nil {
+	w := &work{
+		p: p, s: s, kinds: kinds, kindOf: kindOf,
+		f: make([]float64, n), mag: make([]float64, n),
+		ft: make([]float64, n), magt: make([]float64, n),
+		wt: make([]float64, n), step: make([]float64, n), rhs: make([]float64, n),
+		trial: make([]float64, n), d: make([]float64, n),
+	}
+	w.jac = p.Pattern()
+	w.jact = w.jac.Clone()
+	w.shift = w.jac.Clone()
+	if s.Linear == nil {
+		s.Linear = Auto(n)
+		w.s.Linear = s.Linear
+	}
+	if err := p.Evaluate(x, w.f, w.jac, w.mag); err != nil {
 		res.Reason, res.Err = InvalidStart, err
 		return res
 	}
-	if !allFinite(f) {
+	if !allFinite(w.f) {
 		res.Reason = NotFinite
 		return res
 	}
-	step := make([]float64, n)
-	rhs := make([]float64, n)
-	trial := make([]float64, n)
-	ftrial := make([]float64, n)
-	phi := sumSquares(f)
-	shifts := 0
+	if err := s.Linear.Analyse(w.jac); err != nil {
+		res.Reason, res.Err = classify(err)
+		return res
+	}
 	for it := 1; it <= s.MaxIterations; it++ {
 		res.Iterations = it
-		shifted, err := newtonStep(s, jac, f, fscale, step, rhs)
+		w.weights()
+		shifted, err := w.direction(x)
 		if err != nil {
 			res.Reason, res.Err = classify(err)
-			return finish(res, f, fscale)
-		}
-		if shifted {
-			shifts++
-			if shifts > maxShiftedSteps {
-				res.Reason = SingularJacobian
-				res.Err = fmt.Errorf("%w after %d pseudo-transient steps", ErrSingular, maxShiftedSteps)
-				return finish(res, f, fscale)
+			if res.Reason == SingularJacobian {
+				res.Floating = floating(w.jac)
+				res.Err = w.nameFloating(res.Err, res.Floating)
 			}
+			return w.finish(res)
 		}
-		if !allFinite(step) {
+		if !allFinite(w.step) {
 			res.Reason = NotFinite
-			return finish(res, f, fscale)
+			return w.finish(res)
 		}
-		if big := maxAbs(step); big > s.MaxChange {
-			scale(step, s.MaxChange/big)
-		}
-		// Backtracking line search on φ = ‖F‖². A shifted step is not a
-		// Newton step and need not reduce φ; it only has to land where
-		// the problem can be evaluated.
-		lambda := 1.0
-		accepted := false
-		for lambda >= s.MinStep {
-			for i := range trial {
-				trial[i] = x[i] + lambda*step[i]
-			}
-			if tscale, err := p.Evaluate(trial, ftrial, nil); err == nil && allFinite(ftrial) {
-				// Near the solution round-off stops φ from falling;
-				// a trial already within tolerance is accepted.
-				phiTrial := sumSquares(ftrial)
-				if shifted || phiTrial <= (1-2*s.Armijo*lambda)*phi ||
-					maxAbs(ftrial) <= s.ResidualTolerance*tscale {
-					accepted = true
-					break
+		stepOK, resOK := w.tests()
+		res.Step = w.scaledStepMax()
+		if stepOK && resOK {
+			res.Reason = Converged
+			res.SingularAtSolution = shifted
+			if !shifted {
+				// Take the last Newton step too: it is within
+				// tolerance, and Newton's method squares the error.
+				// Keep it only if the residual stays within tolerance.
+				for i := range w.trial {
+					w.trial[i] = x[i] + w.step[i]
+				}
+				if err := p.Evaluate(w.trial, w.ft, nil, w.magt); err == nil && allFinite(w.ft) && w.withinTolerance(w.ft, w.magt) {
+					copy(x, w.trial)
+					w.f, w.ft = w.ft, w.f
+					w.mag, w.magt = w.magt, w.mag
 				}
 			}
-			lambda /= 2
+			return w.finish(res)
 		}
-		if !accepted {
+		if shifted {
+			res.Pseudo++
+			if res.Pseudo > s.MaxPseudoSteps {
+				res.Reason = SingularJacobian
+				res.Floating = floating(w.jac)
+				res.Err = w.nameFloating(fmt.Errorf("%w after %d pseudo-transient steps", ErrSingular, s.MaxPseudoSteps), res.Floating)
+				return w.finish(res)
+			}
+		}
+		w.limitStep()
+		taken := w.scaledStepMax()
+		phi0 := w.merit(w.f)
+		tried := math.NaN()
+		try := func(lambda float64) (float64, error) {
+			tried = lambda
+			for i := range w.trial {
+				w.trial[i] = x[i] + lambda*w.step[i]
+			}
+			if err := p.Evaluate(w.trial, w.ft, w.jact, w.magt); err != nil {
+				return 0, err
+			}
+			if !allFinite(w.ft) {
+				return 0, errNotFinite
+			}
+			if shifted || w.withinTolerance(w.ft, w.magt) {
+				// A pseudo-transient step need not decrease the
+				// merit; near the solution round-off stops the merit
+				// from falling, and a trial within tolerance will do.
+				return -1, nil
+			}
+			return w.merit(w.ft), nil
+		}
+		lambda, ok, lastErr := s.LineSearch.Search(phi0, try)
+		if !ok {
 			res.Reason = LineSearchFailed
-			return finish(res, f, fscale)
+			if lastErr != nil && !errors.Is(lastErr, errNotFinite) {
+				res.Reason = LeftDomain
+			}
+			res.Err = lastErr
+			return w.finish(res)
 		}
-		copy(x, trial)
-		if fscale, err = p.Evaluate(x, f, jac); err != nil {
-			// Evaluated without error a moment ago; the Jacobian pass
-			// must not disagree.
-			res.Reason, res.Err = InvalidStart, err
-			return finish(res, f, fscale)
+		if tried != lambda {
+			// A line search may look further than the step it accepts;
+			// the accepted trial is evaluated again.
+			if _, err := try(lambda); err != nil {
+				res.Reason, res.Err = InvalidStart, err
+				return w.finish(res)
+			}
 		}
-		phi = sumSquares(f)
-		res.Step = lambda * maxAbs(step)
-		res.Residual = maxAbs(f)
-		res.Scaled = res.Residual / fscale
+		copy(x, w.trial)
+		w.f, w.ft = w.ft, w.f
+		w.mag, w.magt = w.magt, w.mag
+		w.jac, w.jact = w.jact, w.jac
+		it := Iterate{Iteration: it, Residual: maxAbs(w.f), Step: lambda * taken, Lambda: lambda, Pseudo: shifted}
+		it.Scaled, it.Worst = w.worstScaled()
+		for _, m := range s.Monitors {
+			m(it)
+		}
 		if s.Monitor != nil {
-			s.Monitor(Iterate{Iteration: it, Residual: res.Residual, Scaled: res.Scaled, Step: res.Step, Lambda: lambda})
-		}
-		if res.Step <= s.StepTolerance && res.Scaled <= s.ResidualTolerance {
-			res.Reason = Converged
-			return res
+			s.Monitor(it)
 		}
 	}
 	res.Reason = MaxIterations
-	return res
+	return w.finish(res)
 }
 
-// maxShiftedSteps bounds the pseudo-transient steps of one solve: a
-// problem that stays singular after this many has part of its unknowns
-// truly undetermined.
-const maxShiftedSteps = 50
+var errNotFinite = errors.New("residual not finite")
 
-// newtonStep solves J·step = −F. When J is singular, as it is where a
-// nonlinear link has zero slope (natural convection at zero temperature
-// difference, at the usual starting state), it takes a pseudo-transient
-// step instead (Kelley & Keyes 1998, Convergence analysis of
-// pseudotransient continuation, SIAM J. Numer. Anal. 35): it solves
-// (J − μ·D)·step = −F with D = diag(±1) in the sign of each row's
-// diagonal (−1 for a zero diagonal: the dissipative sign of a thermal
-// network, where more heat leaves a node as it warms) and
-// μ = fscale/Settings.PseudoStep, a capacity that moves the unknowns by
-// about PseudoStep. It reports whether it shifted.
-func newtonStep(s Settings, jac *sparse.Matrix, f []float64, fscale float64, step, rhs []float64) (bool, error) {
-	for i := range rhs {
-		rhs[i] = -f[i]
+// work holds the iteration's vectors and matrices.
+type work struct {
+	p      Problem
+	s      Settings
+	kinds  []Kind
+	kindOf []int
+
+	f, mag    []float64 // at x
+	ft, magt  []float64 // at the trial state
+	wt        []float64 // merit weights
+	step, rhs []float64
+	trial     []float64
+	d         []float64 // diagonal scaling
+	jac, jact *sparse.Matrix
+	shift     *sparse.Matrix
+	capacity  []float64
+}
+
+// floor returns equation i's residual floor.
+func (w *work) floor(i int) float64 { return w.kinds[w.kindOf[i]].ResidualFloor }
+
+// weights sets the merit weights: each equation's magnitude, bounded below
+// by a millionth of the largest magnitude of its kind, so that equations
+// with nothing flowing yet do not dominate the merit.
+func (w *work) weights() {
+	largest := make([]float64, len(w.kinds))
+	for i, m := range w.mag {
+		k := w.kindOf[i]
+		largest[k] = math.Max(largest[k], m)
 	}
-	err := s.Linear.Factorize(jac)
+	for i, m := range w.mag {
+		k := w.kindOf[i]
+		w.wt[i] = math.Max(math.Max(m, 1e-6*largest[k]), math.Max(w.kinds[k].ResidualFloor, math.SmallestNonzeroFloat64))
+	}
+}
+
+// merit returns ½Σ(f_i/w_i)².
+func (w *work) merit(f []float64) float64 {
+	s := 0.0
+	for i, v := range f {
+		r := v / w.wt[i]
+		s += r * r
+	}
+	return s / 2
+}
+
+// withinTolerance reports whether every equation passes the residual test.
+func (w *work) withinTolerance(f, mag []float64) bool {
+	for i, v := range f {
+		if math.Abs(v) > w.s.ResidualTolerance*mag[i]+w.floor(i) {
+			return false
+		}
+	}
+	return true
+}
+
+// tests applies the step and residual tests at the current state.
+func (w *work) tests() (stepOK, resOK bool) {
+	stepOK = true
+	for i, v := range w.step {
+		if math.Abs(v) > w.s.StepTolerance*w.kinds[w.kindOf[i]].Scale {
+			stepOK = false
+			break
+		}
+	}
+	return stepOK, w.withinTolerance(w.f, w.mag)
+}
+
+func (w *work) scaledStepMax() float64 {
+	m := 0.0
+	for i, v := range w.step {
+		m = math.Max(m, math.Abs(v)/w.kinds[w.kindOf[i]].Scale)
+	}
+	return m
+}
+
+// limitStep scales the whole step down so that no unknown moves by more
+// than its kind's MaxStep.
+func (w *work) limitStep() {
+	f := 1.0
+	for i, v := range w.step {
+		if ms := w.kinds[w.kindOf[i]].MaxStep; ms > 0 && math.Abs(v)*f > ms {
+			f = ms / math.Abs(v)
+		}
+	}
+	if f < 1 {
+		scale(w.step, f)
+	}
+}
+
+// worstScaled returns the largest |f_i| relative to its equation's
+// magnitude and floor, and where it is.
+func (w *work) worstScaled() (float64, int) {
+	worst, at := 0.0, -1
+	for i, v := range w.f {
+		r := math.Abs(v) / math.Max(w.mag[i], math.Max(w.floor(i), math.SmallestNonzeroFloat64))
+		if at < 0 || r > worst {
+			worst, at = r, i
+		}
+	}
+	return worst, at
+}
+
+// direction sets w.step to the Newton step at x, or to a pseudo-transient
+// step when the Jacobian is singular; it reports which.
+func (w *work) direction(x []float64) (bool, error) {
+	n := len(w.f)
+	// Symmetric diagonal scaling D = diag(1/√|J_ii|) (1 for a zero
+	// diagonal): solve (DJD)y = −Df, Δx = Dy.
+	for i := 0; i < n; i++ {
+		k := w.jac.Index(i, i)
+		dii := 0.0
+		if k >= 0 {
+			dii = math.Abs(w.jac.Val[k])
+		}
+		if dii > 0 && !math.IsInf(dii, 0) {
+			w.d[i] = 1 / math.Sqrt(dii)
+		} else {
+			w.d[i] = 1
+		}
+	}
+	w.scaleInto(w.shift, w.jac)
+	for i := range w.rhs {
+		w.rhs[i] = -w.f[i] * w.d[i]
+	}
+	err := w.s.Linear.Factorize(w.shift)
 	if err == nil {
-		return false, s.Linear.Solve(step, rhs)
+		if err = w.s.Linear.Solve(w.step, w.rhs); err != nil {
+			return false, err
+		}
+		for i := range w.step {
+			w.step[i] *= w.d[i]
+		}
+		return false, nil
 	}
 	if !errors.Is(err, ErrSingular) {
 		return false, err
 	}
-	mu := fscale / s.PseudoStep
-	for try := 0; try < 6; try, mu = try+1, mu*10 {
-		shiftedJac := jac.Clone()
-		for i := 0; i < jac.N; i++ {
-			k := jac.Index(i, i)
-			if shiftedJac.Val[k] > 0 {
-				shiftedJac.Val[k] += mu
-			} else {
-				shiftedJac.Val[k] -= mu
-			}
-		}
-		if err = s.Linear.Factorize(shiftedJac); err == nil {
-			return true, s.Linear.Solve(step, rhs)
-		}
-	}
-	return false, err
+	return true, w.pseudoStep(x)
 }
 
-// finish records the residual at the last accepted state.
-func finish(r Result, f []float64, scale float64) Result {
-	r.Residual = maxAbs(f)
-	r.Scaled = r.Residual / scale
+// scaleInto sets dst = D·src·D.
+func (w *work) scaleInto(dst, src *sparse.Matrix) {
+	for i := 0; i < src.N; i++ {
+		for k := src.RowPtr[i]; k < src.RowPtr[i+1]; k++ {
+			dst.Val[k] = src.Val[k] * w.d[i] * w.d[src.Col[k]]
+		}
+	}
+}
+
+// pseudoStep solves (J − S/Δτ)·Δx = −F; see Newton.
+func (w *work) pseudoStep(x []float64) error {
+	n := len(w.f)
+	if w.capacity == nil {
+		w.capacity = make([]float64, n)
+	}
+	clear(w.capacity)
+	if c, ok := w.p.(Capacitive); ok {
+		c.Capacity(x, w.capacity)
+	}
+	// S_i: the real capacity, or the equation's magnitude per unit
+	// Scale; Δτ so that the fastest unknown moves by PseudoStep·Scale.
+	rate := 0.0
+	for i := range w.capacity {
+		sc := w.kinds[w.kindOf[i]].Scale
+		if !(w.capacity[i] > 0) {
+			w.capacity[i] = w.wt[i] / sc
+		}
+		rate = math.Max(rate, math.Abs(w.f[i])/(w.capacity[i]*sc))
+	}
+	if !(rate > 0) {
+		rate = 1
+	}
+	dtau := w.s.PseudoStep / rate
+	var err error
+	for try := 0; try < 8; try, dtau = try+1, dtau/10 {
+		for i := 0; i < n; i++ {
+			for k := w.jac.RowPtr[i]; k < w.jac.RowPtr[i+1]; k++ {
+				w.shift.Val[k] = w.jac.Val[k]
+			}
+			k := w.jac.Index(i, i)
+			mu := w.capacity[i] / dtau
+			// The dissipative sign: the shift strengthens the diagonal.
+			if w.shift.Val[k] > 0 {
+				w.shift.Val[k] += mu
+			} else {
+				w.shift.Val[k] -= mu
+			}
+		}
+		// Scale by the shifted diagonal.
+		for i := 0; i < n; i++ {
+			w.d[i] = 1 / math.Sqrt(math.Abs(w.shift.Val[w.jac.Index(i, i)]))
+		}
+		w.scaleInto(w.shift, w.shift)
+		for i := range w.rhs {
+			w.rhs[i] = -w.f[i] * w.d[i]
+		}
+		if err = w.s.Linear.Factorize(w.shift); err == nil {
+			if err = w.s.Linear.Solve(w.step, w.rhs); err != nil {
+				return err
+			}
+			for i := range w.step {
+				w.step[i] *= w.d[i]
+			}
+			return nil
+		}
+		if !errors.Is(err, ErrSingular) {
+			return err
+		}
+	}
+	return err
+}
+
+// finish records the residual and the state of each kind at the last
+// accepted state.
+func (w *work) finish(r Result) Result {
+	r.Residual = maxAbs(w.f)
+	r.Scaled, r.Worst = w.worstScaled()
+	r.Kinds = make([]KindResult, len(w.kinds))
+	for k := range w.kinds {
+		r.Kinds[k] = KindResult{Kind: w.kinds[k], StepAt: -1, ResidualAt: -1, ScaledAt: -1, Converged: true}
+	}
+	for i, v := range w.f {
+		kr := &r.Kinds[w.kindOf[i]]
+		kr.Unknowns++
+		if a := math.Abs(w.step[i]); kr.StepAt < 0 || a > kr.Step {
+			kr.Step, kr.StepAt = a, i
+		}
+		if a := math.Abs(v); kr.ResidualAt < 0 || a > kr.Residual {
+			kr.Residual, kr.ResidualAt = a, i
+		}
+		sc := math.Abs(v) / math.Max(w.mag[i], math.Max(w.floor(i), math.SmallestNonzeroFloat64))
+		if kr.ScaledAt < 0 || sc > kr.Scaled {
+			kr.Scaled, kr.ScaledAt = sc, i
+		}
+		if math.Abs(v) > w.s.ResidualTolerance*w.mag[i]+w.floor(i) ||
+			math.Abs(w.step[i]) > w.s.StepTolerance*w.kinds[w.kindOf[i]].Scale {
+			kr.Converged = false
+		}
+	}
 	return r
+}
+
+// nameFloating adds the names of floating unknowns to err.
+func (w *work) nameFloating(err error, fl []int) error {
+	if len(fl) == 0 {
+		return err
+	}
+	names := make([]string, 0, len(fl))
+	for k, i := range fl {
+		if k == 12 {
+			names = append(names, fmt.Sprintf("and %d more", len(fl)-12))
+			break
+		}
+		if nm, ok := w.p.(Namer); ok {
+			names = append(names, nm.Name(i))
+		} else {
+			names = append(names, fmt.Sprintf("unknown %d", i))
+		}
+	}
+	return fmt.Errorf("%w; undetermined: %s", err, strings.Join(names, ", "))
+}
+
+// floating returns the unknowns that no chain of non-zero Jacobian entries
+// joins to an equation that depends on something given: an equation whose
+// row does not sum to zero (for a heat balance, a node with a conductance
+// to a fixed temperature). Their values are undetermined by the equations.
+func floating(j *sparse.Matrix) []int {
+	n := j.N
+	anchored := make([]bool, n)
+	var queue []int
+	for i := 0; i < n; i++ {
+		sum, big := 0.0, 0.0
+		for k := j.RowPtr[i]; k < j.RowPtr[i+1]; k++ {
+			sum += j.Val[k]
+			big = math.Max(big, math.Abs(j.Val[k]))
+		}
+		if big > 0 && math.Abs(sum) > 1e-12*big {
+			anchored[i] = true
+			queue = append(queue, i)
+		}
+	}
+	// Entries join both ways: the transpose's rows are needed too.
+	adj := make([][]int, n)
+	for i := 0; i < n; i++ {
+		for k := j.RowPtr[i]; k < j.RowPtr[i+1]; k++ {
+			if c := j.Col[k]; c != i && j.Val[k] != 0 {
+				adj[i] = append(adj[i], c)
+				adj[c] = append(adj[c], i)
+			}
+		}
+	}
+	for len(queue) > 0 {
+		i := queue[len(queue)-1]
+		queue = queue[:len(queue)-1]
+		for _, c := range adj[i] {
+			if !anchored[c] {
+				anchored[c] = true
+				queue = append(queue, c)
+			}
+		}
+	}
+	var out []int
+	for i, a := range anchored {
+		if !a {
+			out = append(out, i)
+		}
+	}
+	return out
 }
 
 func classify(err error) (StopReason, error) {
@@ -191,14 +555,6 @@ func allFinite(v []float64) bool {
 		}
 	}
 	return true
-}
-
-func sumSquares(v []float64) float64 {
-	s := 0.0
-	for _, x := range v {
-		s += x * x
-	}
-	return s
 }
 
 func maxAbs(v []float64) float64 {

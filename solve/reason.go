@@ -5,7 +5,8 @@ type StopReason int
 
 // The reasons a solve ends. Only Converged means the state is a solution.
 const (
-	// Converged: the step and the scaled residual are both below tolerance.
+	// Converged: every equation's residual and every component of the
+	// full Newton step are within tolerance.
 	Converged StopReason = iota
 	// MaxIterations: the iteration limit was reached first.
 	MaxIterations
@@ -14,7 +15,7 @@ const (
 	// Jacobian may be wrong.
 	LineSearchFailed
 	// SingularJacobian: the linear system could not be solved; usually part
-	// of the network has no path for its heat.
+	// of the network has no path for its heat (Result.Floating names it).
 	SingularJacobian
 	// InvalidStart: the problem could not be evaluated at the initial
 	// state.
@@ -22,8 +23,13 @@ const (
 	// NotFinite: the residual or the step became NaN or infinite.
 	NotFinite
 	// LinearSolverFailed: the linear solver failed for a reason other than
-	// a singular matrix.
+	// a singular matrix (a problem too large for it, say).
 	LinearSolverFailed
+	// LeftDomain: every step along the Newton direction left the
+	// problem's domain (a temperature at or below absolute zero, say, as a
+	// heat input that removes more heat than the network can bring to a
+	// node would demand); Result.Err says where.
+	LeftDomain
 )
 
 var reasonNames = [...]string{
@@ -34,6 +40,7 @@ var reasonNames = [...]string{
 	InvalidStart:       "cannot evaluate the initial state",
 	NotFinite:          "residual or step not finite",
 	LinearSolverFailed: "linear solver failed",
+	LeftDomain:         "every step left the physical domain",
 }
 
 // String describes the reason in a few words.

@@ -1,33 +1,37 @@
 package solve
 
-// Settings control the Newton iteration. The zero value of a field means its
-// default, so Settings{} is a valid choice.
+// Settings control the Newton iteration. DefaultSettings returns the
+// defaults; a zero field also means its default, so Settings{} is valid.
 type Settings struct {
 	// MaxIterations is the most Newton iterations. Default 100.
 	MaxIterations int
-	// StepTolerance is the largest absolute Newton step at convergence, in
-	// the unknowns' units (K for temperatures). Default 1e-7.
+	// StepTolerance is the largest full Newton step, relative to each
+	// unknown's Kind.Scale, at which the iteration may stop. Default 1e-7
+	// (1e-7 K for temperatures of scale 1 K).
 	StepTolerance float64
-	// ResidualTolerance is the largest residual at convergence, relative to
-	// the scale Problem.Evaluate returns. Default 1e-9.
+	// ResidualTolerance is the largest residual of each equation at
+	// convergence, relative to that equation's own magnitude (the heat
+	// that moves through the node, not through the whole network), plus
+	// its kind's ResidualFloor. Default 1e-9.
 	ResidualTolerance float64
-	// Armijo is the sufficient-decrease constant c of the line search: a
-	// step λ is accepted when ‖F(x+λp)‖² ≤ (1 − 2cλ)‖F(x)‖². Default 1e-4.
-	Armijo float64
-	// MinStep is the shortest fraction λ of the Newton step the line search
-	// tries before it gives up. Default 1e-8.
-	MinStep float64
-	// MaxChange limits the largest change of any unknown in one iteration
-	// (K for temperatures); longer Newton steps are scaled down. Default
-	// 200.
-	MaxChange float64
-	// PseudoStep is the change of the unknowns (K for temperatures) that
-	// a pseudo-transient step aims at when the Jacobian is singular; see
-	// Newton. Default 10.
+	// PseudoStep is the change, relative to Kind.Scale, that a
+	// pseudo-transient step aims at when the Jacobian is singular (see
+	// Newton). Default 10.
 	PseudoStep float64
-	// Linear solves the Newton systems. Default NewDenseLU().
+	// MaxPseudoSteps bounds the pseudo-transient steps of one solve; a
+	// problem still singular after that many has unknowns that are truly
+	// undetermined. Default 50.
+	MaxPseudoSteps int
+	// Linear solves the Newton systems. Default: a DenseLU for up to
+	// DenseLimit unknowns.
 	Linear LinearSolver
-	// Monitor, if not nil, is called after every iteration.
+	// LineSearch chooses how far to go along each Newton step. Default
+	// Backtracking{}.
+	LineSearch LineSearch
+	// Monitors are called after every iteration, in order.
+	Monitors []Monitor
+	// Monitor, if not nil, is called after every iteration, after
+	// Monitors.
 	Monitor Monitor
 }
 
@@ -36,13 +40,16 @@ const (
 	DefaultMaxIterations     = 100
 	DefaultStepTolerance     = 1e-7
 	DefaultResidualTolerance = 1e-9
-	DefaultArmijo            = 1e-4
-	DefaultMinStep           = 1e-8
-	DefaultMaxChange         = 200
 	DefaultPseudoStep        = 10
+	DefaultMaxPseudoSteps    = 50
 )
 
+// DefaultSettings returns the settings with every default filled in.
+func DefaultSettings() Settings { return Settings{}.withDefaults() }
+
 // withDefaults returns s with every zero field replaced by its default.
+// The linear solver is left nil when not given: Newton picks one for the
+// problem's size.
 func (s Settings) withDefaults() Settings {
 	if s.MaxIterations <= 0 {
 		s.MaxIterations = DefaultMaxIterations
@@ -53,20 +60,14 @@ func (s Settings) withDefaults() Settings {
 	if s.ResidualTolerance <= 0 {
 		s.ResidualTolerance = DefaultResidualTolerance
 	}
-	if s.Armijo <= 0 {
-		s.Armijo = DefaultArmijo
-	}
-	if s.MinStep <= 0 {
-		s.MinStep = DefaultMinStep
-	}
-	if s.MaxChange <= 0 {
-		s.MaxChange = DefaultMaxChange
-	}
 	if s.PseudoStep <= 0 {
 		s.PseudoStep = DefaultPseudoStep
 	}
-	if s.Linear == nil {
-		s.Linear = NewDenseLU()
+	if s.MaxPseudoSteps <= 0 {
+		s.MaxPseudoSteps = DefaultMaxPseudoSteps
+	}
+	if s.LineSearch == nil {
+		s.LineSearch = Backtracking{}
 	}
 	return s
 }
@@ -74,11 +75,13 @@ func (s Settings) withDefaults() Settings {
 // Iterate describes one Newton iteration, for monitors.
 type Iterate struct {
 	Iteration int     // 1 for the first step
-	Residual  float64 // largest |F| after the step
-	Scaled    float64 // Residual divided by the residual scale
-	Step      float64 // largest |Δx| taken
+	Residual  float64 // largest |F| after the step, in mixed units
+	Scaled    float64 // largest |F_i| relative to its equation's magnitude
+	Worst     int     // the equation with the largest scaled residual
+	Step      float64 // largest |Δx|/Scale taken
 	Lambda    float64 // fraction of the Newton step taken
+	Pseudo    bool    // the step was a pseudo-transient step
 }
 
-// Monitor watches the iteration; see Settings.Monitor.
+// Monitor watches the iteration; see Settings.Monitors.
 type Monitor func(Iterate)

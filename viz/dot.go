@@ -84,22 +84,27 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 
 	qMax := 0.0
 	for _, l := range sol.Links {
-		qMax = math.Max(qMax, math.Max(math.Abs(l.Heat), math.Abs(l.Carried)))
+		for _, p := range l.Paths {
+			qMax = math.Max(qMax, math.Abs(p.Heat))
+		}
 	}
 	for _, l := range sol.Links {
-		from, to, heat := l.From, l.To, l.Heat
-		if heat < 0 {
-			from, to, heat = to, from, -heat
-		}
-		colour := edgeColour
-		if l.Kind == "stream" {
-			colour = airColour
-		}
-		d.check(g.AddEdge(q(from), q(to), true, edgeAttrs(heat, qMax, fmt.Sprintf("%s (%s)", l.ID, l.Kind), colour)))
-		if l.Inlet != "" && l.Carried != 0 {
-			// The air a channel passes on carries heat of its own.
-			d.check(g.AddEdge(q(l.Inlet), q(l.To), true,
-				edgeAttrs(math.Abs(l.Carried), qMax, fmt.Sprintf("%s: air from %s", l.ID, l.Inlet), airColour)))
+		for k, p := range l.Paths {
+			from, to, heat := p.From, p.To, p.Heat
+			if k > 0 && heat == 0 {
+				continue
+			}
+			if heat < 0 {
+				from, to, heat = to, from, -heat
+			}
+			colour, tip := edgeColour, fmt.Sprintf("%s (%s)", l.ID, l.Kind)
+			if p.Carried {
+				colour = airColour
+				if k > 0 {
+					tip = fmt.Sprintf("%s: air from %s", l.ID, p.From)
+				}
+			}
+			d.check(g.AddEdge(q(from), q(to), true, edgeAttrs(heat, qMax, tip, colour)))
 		}
 	}
 	d.legend(colouring, tMin, tMax)

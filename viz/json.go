@@ -56,19 +56,28 @@ type NodeReport struct {
 	Status       string   `json:"status,omitempty"`
 }
 
-// LinkReport is one link's result. HeatW is positive from From to To. A
-// channel also names its Inlet air node and the heat CarriedW that the air
-// brings from it to the outlet To, above ambient.
+// LinkReport is one link's result. HeatW is positive from From to To.
+// Paths lists every way heat goes through the link, the main one first: a
+// channel has two, the heat from the wall to the outlet air and the heat
+// the air brings from the inlet (above ambient, Carried).
 type LinkReport struct {
 	ID       string         `json:"id"`
 	Kind     string         `json:"kind"`
 	From     string         `json:"from"`
 	To       string         `json:"to"`
 	HeatW    float64        `json:"heat_W"`
-	Inlet    string         `json:"inlet,omitempty"`
-	CarriedW *float64       `json:"carried_W,omitempty"`
+	Paths    []PathReport   `json:"paths,omitempty"`
 	Details  []DetailReport `json:"details,omitempty"`
 	Warnings []string       `json:"warnings,omitempty"`
+}
+
+// PathReport is one heat path of a link: HeatW watts from From to To;
+// Carried when moving air carries it.
+type PathReport struct {
+	From    string  `json:"from"`
+	To      string  `json:"to"`
+	HeatW   float64 `json:"heat_W"`
+	Carried bool    `json:"carried_by_air"`
 }
 
 // DetailReport is one quantity a link reports, with its SI unit.
@@ -129,9 +138,8 @@ func NewReport(m *network.Model, sol *network.Solution, run Run) *Report {
 	}
 	for _, l := range sol.Links {
 		lr := LinkReport{ID: l.ID, Kind: l.Kind, From: l.From, To: l.To, HeatW: l.Heat, Warnings: l.Warnings}
-		if l.Inlet != "" {
-			c := l.Carried
-			lr.Inlet, lr.CarriedW = l.Inlet, &c
+		for _, p := range l.Paths {
+			lr.Paths = append(lr.Paths, PathReport{From: p.From, To: p.To, HeatW: p.Heat, Carried: p.Carried})
 		}
 		for _, d := range l.Details {
 			dr := DetailReport{Name: d.Name, Unit: d.Unit, Text: d.Text}

@@ -64,8 +64,12 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 	tw.printf("\n%-*s  %-*s  %10s  %s\n", idw, "link", kw, "kind", "heat [W]", "from → to (positive heat flows this way)")
 	for _, l := range sol.Links {
 		tw.printf("%-*s  %-*s  %10.3f  %s → %s", idw, l.ID, kw, l.Kind, noNegZero(l.Heat, 3), l.From, l.To)
-		if l.Inlet != "" {
-			tw.printf("; the air from %s brings %.3f", l.Inlet, noNegZero(l.Carried, 3))
+		for _, p := range l.Paths[min(1, len(l.Paths)):] {
+			how := ""
+			if p.Carried {
+				how = " carried by the air"
+			}
+			tw.printf("; %.3f W%s %s → %s", noNegZero(p.Heat, 3), how, p.From, p.To)
 		}
 		tw.printf("\n")
 	}

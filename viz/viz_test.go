@@ -156,8 +156,10 @@ links:
 `)
 	for _, l := range sol.Links {
 		if l.ID == "second" {
-			assert.Equal(t, "mid", l.Inlet)
-			assert.InDelta(t, 10, l.Carried, 1e-9, "the air brings the first block's 10 W")
+			require.Len(t, l.Paths, 2)
+			assert.Equal(t, "mid", l.Paths[1].From)
+			assert.True(t, l.Paths[1].Carried)
+			assert.InDelta(t, 10, l.Paths[1].Heat, 1e-9, "the air brings the first block's 10 W")
 		}
 	}
 	dot, err := DOT(sol, ColourMargin)

@@ -1,0 +1,156 @@
+package network
+
+import (
+	"math"
+
+	"github.com/heatgraph/heatgraph/elements"
+	"github.com/heatgraph/heatgraph/sparse"
+)
+
+// assembly is the network's elements with every Jacobian position resolved
+// once: evaluation only writes values. For element e, its rows are
+// rows[rowStart[e]:rowStart[e+1]] (variables) and the position in the
+// Jacobian's values of its entry (row a, var b) is
+// slots[slotStart[e] + a·nv + b], or −1 where the row or the var is given.
+type assembly struct {
+	elems     []elements.Element
+	rowStart  []int32
+	rows      []int32
+	slotStart []int32
+	slots     []int32
+	nvars     []int32 // per element
+	pattern   *sparse.Matrix
+	maxR      int
+	maxV      int
+	storing   []int // indices of elements that implement elements.Storage
+}
+
+// allElements returns every element: heat inputs, heat capacities, then
+// links.
+func (net *Network) allElements() []elements.Element {
+	all := make([]elements.Element, 0, len(net.sources)+len(net.stores)+len(net.Links))
+	all = append(all, net.sources...)
+	all = append(all, net.stores...)
+	for _, l := range net.Links {
+		all = append(all, l.Element)
+	}
+	return all
+}
+
+// assemble builds the Jacobian pattern over the unknowns and resolves
+// every element's positions in it.
+func (net *Network) assemble() *assembly {
+	a := &assembly{elems: net.allElements()}
+	n := len(net.unknown)
+	b := sparse.NewBuilder(n)
+	type block struct{ rows, vars []int }
+	blocks := make([]block, len(a.elems))
+	for e, el := range a.elems {
+		rows, vars := el.Rows(), el.Vars()
+		blocks[e] = block{rows, vars}
+		for _, r := range rows {
+			fr := net.free[r]
+			if fr < 0 {
+				continue
+			}
+			for _, v := range vars {
+				if fv := net.free[v]; fv >= 0 {
+					b.Mark(fr, fv)
+				}
+			}
+		}
+		a.maxR = max(a.maxR, len(rows))
+		a.maxV = max(a.maxV, len(vars))
+		if _, ok := el.(elements.Storage); ok {
+			a.storing = append(a.storing, e)
+		}
+	}
+	a.pattern = b.Build()
+	a.rowStart = make([]int32, len(a.elems)+1)
+	a.slotStart = make([]int32, len(a.elems)+1)
+	a.nvars = make([]int32, len(a.elems))
+	for e, bl := range blocks {
+		a.rowStart[e+1] = a.rowStart[e] + int32(len(bl.rows))
+		a.slotStart[e+1] = a.slotStart[e] + int32(len(bl.rows)*len(bl.vars))
+		a.nvars[e] = int32(len(bl.vars))
+		for _, r := range bl.rows {
+			a.rows = append(a.rows, int32(r))
+			fr := net.free[r]
+			for _, v := range bl.vars {
+				slot := -1
+				if fv := net.free[v]; fr >= 0 && fv >= 0 {
+					slot = a.pattern.Index(fr, fv)
+				}
+				a.slots = append(a.slots, int32(slot))
+			}
+		}
+	}
+	return a
+}
+
+// evaluator evaluates an assembly into per-variable sums; each Problem has
+// its own, so that several may run at once.
+type evaluator struct {
+	a     *assembly
+	local elements.Local
+}
+
+// eval evaluates every element at s: flow into each variable's equation
+// (all variables, given ones included) into sum, the magnitude of the
+// terms into mag (when not nil), and derivatives into jac (when not nil),
+// which it zeroes first.
+func (ev *evaluator) eval(s *elements.State, sum, mag []float64, jac *sparse.Matrix) {
+	clear(sum)
+	if mag != nil {
+		clear(mag)
+	}
+	if jac != nil {
+		jac.Zero()
+	}
+	a := ev.a
+	l := &ev.local
+	for e, el := range a.elems {
+		r0, r1 := a.rowStart[e], a.rowStart[e+1]
+		nv := int(a.nvars[e])
+		l.Reset(int(r1-r0), nv, jac != nil)
+		el.Eval(s, l)
+		ev.scatter(e, sum, mag, jac)
+	}
+}
+
+// stored evaluates the stored energy of every storing element into sum and
+// its derivatives into jac.
+func (ev *evaluator) stored(s *elements.State, sum []float64, jac *sparse.Matrix) {
+	clear(sum)
+	if jac != nil {
+		jac.Zero()
+	}
+	a := ev.a
+	l := &ev.local
+	for _, e := range a.storing {
+		r0, r1 := a.rowStart[e], a.rowStart[e+1]
+		l.Reset(int(r1-r0), int(a.nvars[e]), jac != nil)
+		a.elems[e].(elements.Storage).Stored(s, l)
+		ev.scatter(e, sum, nil, jac)
+	}
+}
+
+// scatter adds element e's local values into the sums and the Jacobian.
+func (ev *evaluator) scatter(e int, sum, mag []float64, jac *sparse.Matrix) {
+	a := ev.a
+	l := &ev.local
+	r0 := a.rowStart[e]
+	for k, r := range a.rows[r0:a.rowStart[e+1]] {
+		sum[r] += l.R[k]
+		if mag != nil {
+			mag[r] += math.Abs(l.R[k])
+		}
+	}
+	if jac != nil {
+		for k, slot := range a.slots[a.slotStart[e]:a.slotStart[e+1]] {
+			if slot >= 0 {
+				jac.Val[slot] += l.J[k]
+			}
+		}
+	}
+}
