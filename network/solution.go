@@ -200,4 +200,3 @@ func (b Balance) MaxImbalance() float64 {
 	}
 	return 1e-6 * math.Max(scale, 1e-3)
 }
-
