@@ -60,6 +60,11 @@ func (v Variable) Name() string {
 	return fmt.Sprintf("mass flow of %q", v.Owner)
 }
 
+// Equation names the equation paired with the variable, for messages.
+func (v Variable) Equation() string {
+	return fmt.Sprintf("%s of %q", varKinds[v.Kind].Equation, v.Owner)
+}
+
 // addVar appends a variable and returns its index.
 func (net *Network) addVar(v Variable) int {
 	net.Vars = append(net.Vars, v)
