@@ -82,7 +82,7 @@ func (p *Steady) load(x []float64) error {
 	for u, v := range p.net.unknown {
 		t := x[u]
 		if p.net.Vars[v].Kind == TemperatureVar && (!(t > 0) || math.IsInf(t, 0)) {
-			return fmt.Errorf("node %q: temperature %g K is not physical", p.net.Vars[v].Owner, t)
+			return fmt.Errorf("node %q would be at %.4g K, at or below absolute zero: no physical state has these balances (does a negative power take more heat out of it than its links can bring?)", p.net.Vars[v].Owner, t)
 		}
 		if math.IsNaN(t) || math.IsInf(t, 0) {
 			return fmt.Errorf("%s: %g is not finite", p.net.Vars[v].Name(), t)

@@ -126,6 +126,7 @@ func Newton(p Problem, x0 []float64, s Settings) Result {
 		res.Reason, res.Err = classify(err)
 		return res
 	}
+	cut := 0 // consecutive iterations whose longer trials left the domain
 	for it := 1; it <= s.MaxIterations; it++ {
 		res.Iterations = it
 		w.weights()
@@ -175,12 +176,14 @@ func Newton(p Problem, x0 []float64, s Settings) Result {
 		taken := w.scaledStepMax()
 		phi0 := w.merit(w.f)
 		tried := math.NaN()
+		var domainErr error
 		try := func(lambda float64) (float64, error) {
 			tried = lambda
 			for i := range w.trial {
 				w.trial[i] = x[i] + lambda*w.step[i]
 			}
 			if err := p.Evaluate(w.trial, w.ft, w.jact, w.magt); err != nil {
+				domainErr = err
 				return 0, err
 			}
 			if !allFinite(w.ft) {
@@ -195,6 +198,20 @@ func Newton(p Problem, x0 []float64, s Settings) Result {
 			return w.merit(w.ft), nil
 		}
 		lambda, ok, lastErr := s.LineSearch.Search(phi0, try)
+		if !shifted && (!ok || lambda < pseudoBelow) {
+			// The Newton direction is poor here: a slope near zero
+			// (natural convection near zero temperature difference)
+			// predicts a step far too long. A pseudo-transient step
+			// moves at the pace the capacities allow instead.
+			if err := w.pseudoStep(x); err == nil && allFinite(w.step) {
+				w.limitStep()
+				if _, err := try(1); err == nil {
+					shifted, lambda, ok = true, 1, true
+					taken = w.scaledStepMax()
+					res.Pseudo++
+				}
+			}
+		}
 		if !ok {
 			res.Reason = LineSearchFailed
 			if lastErr != nil && !errors.Is(lastErr, errNotFinite) {
@@ -210,6 +227,19 @@ func Newton(p Problem, x0 []float64, s Settings) Result {
 				res.Reason, res.Err = InvalidStart, err
 				return w.finish(res)
 			}
+		}
+		if domainErr != nil {
+			// Steps that keep running into the edge of the domain mean
+			// the balance has no physical solution there (a heat input
+			// that takes more heat out of a node than the network can
+			// bring to it would need a temperature below absolute zero).
+			cut++
+			if cut >= maxDomainCuts {
+				res.Reason, res.Err = LeftDomain, domainErr
+				return w.finish(res)
+			}
+		} else {
+			cut = 0
 		}
 		copy(x, w.trial)
 		w.f, w.ft = w.ft, w.f
@@ -229,6 +259,16 @@ func Newton(p Problem, x0 []float64, s Settings) Result {
 }
 
 var errNotFinite = errors.New("residual not finite")
+
+// pseudoBelow is the shortest fraction of a Newton step worth taking: when
+// the line search would go less far, a pseudo-transient step is taken
+// instead.
+const pseudoBelow = 1.0 / 16
+
+// maxDomainCuts is how many iterations in a row may have their steps cut
+// short by the edge of the domain before the solve gives up with
+// LeftDomain.
+const maxDomainCuts = 8
 
 // work holds the iteration's vectors and matrices.
 type work struct {
