@@ -216,6 +216,16 @@ func (c *Channel) Eval(s *State, l *Local) {
 	// ∂q/∂T_m, shared by inlet and outlet through T_m = (T_in + T_out)/2.
 	dqm := mc * cs.eff.D * dT / 2
 	dqw, dqi, dqo := mc*cs.eff.V, -mc*cs.eff.V+dqm, dqm
+	if !l.Needs(3) {
+		l.D(0, 0, -dqw)
+		l.D(0, 1, -dqi)
+		l.D(0, 2, -dqo)
+		l.D(1, 1, -mc)
+		l.D(2, 0, dqw)
+		l.D(2, 1, mc+dqi)
+		l.D(2, 2, dqo)
+		return
+	}
 	byFlow, _ := c.eval(s, seedFlow)
 	dqf := s.Env.AirCp * dT * (cs.eff.V + m*byFlow.eff.D)
 	dhf := s.Env.AirCp * rise

@@ -62,7 +62,14 @@ type Local struct {
 	R  []float64 // one per row
 	J  []float64 // rows × vars, row-major; nil when no derivatives are wanted
 	NV int       // number of vars
+	// Given, when not nil, marks the vars that are given rather than
+	// unknown: their derivatives are not used, and an element may skip
+	// the work of computing them.
+	Given []bool
 }
+
+// Needs reports whether the derivatives with respect to var v are used.
+func (l *Local) Needs(v int) bool { return l.J != nil && (l.Given == nil || !l.Given[v]) }
 
 // NewLocal returns a Local for an element of nr rows and nv vars, with
 // derivatives when jac is true.
@@ -83,6 +90,7 @@ func (l *Local) Reset(nr, nv int, jac bool) {
 	l.R = l.R[:nr]
 	clear(l.R)
 	l.NV = nv
+	l.Given = nil
 	if !jac {
 		l.J = nil
 		return

@@ -19,6 +19,8 @@ type assembly struct {
 	slotStart []int32
 	slots     []int32
 	nvars     []int32 // per element
+	given     []bool  // per element and var (at varStart), whether the var is given
+	varStart  []int32
 	pattern   *sparse.Matrix
 	maxR      int
 	maxV      int
@@ -69,7 +71,12 @@ func (net *Network) assemble() *assembly {
 	a.rowStart = make([]int32, len(a.elems)+1)
 	a.slotStart = make([]int32, len(a.elems)+1)
 	a.nvars = make([]int32, len(a.elems))
+	a.varStart = make([]int32, len(a.elems)+1)
 	for e, bl := range blocks {
+		a.varStart[e+1] = a.varStart[e] + int32(len(bl.vars))
+		for _, v := range bl.vars {
+			a.given = append(a.given, net.free[v] < 0)
+		}
 		a.rowStart[e+1] = a.rowStart[e] + int32(len(bl.rows))
 		a.slotStart[e+1] = a.slotStart[e] + int32(len(bl.rows)*len(bl.vars))
 		a.nvars[e] = int32(len(bl.vars))
@@ -113,6 +120,7 @@ func (ev *evaluator) eval(s *elements.State, sum, mag []float64, jac *sparse.Mat
 		r0, r1 := a.rowStart[e], a.rowStart[e+1]
 		nv := int(a.nvars[e])
 		l.Reset(int(r1-r0), nv, jac != nil)
+		l.Given = a.given[a.varStart[e]:a.varStart[e+1]]
 		el.Eval(s, l)
 		ev.scatter(e, sum, mag, jac)
 	}
