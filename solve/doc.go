@@ -1,18 +1,24 @@
-// Package solve finds the state at which every free node of a network is in
-// balance: Newton's method with a backtracking line search, the linear
-// solvers it uses, and a typed account of why it stopped.
+// Package solve finds the state at which every equation of a problem
+// balances: Newton's method with a pluggable line search and
+// pseudo-transient steps, linear solvers in three phases (analyse,
+// factorize, solve), and a typed account of why it stopped.
 //
 // The package knows nothing of thermal models. It works on any Problem: a
-// residual F(x) with a sparse Jacobian J(x) = ∂F/∂x. For a thermal network x
-// holds the temperatures of the free nodes (K) and F the net heat flowing into
-// each of them (W), so F(x) = 0 is the steady state.
+// residual F(x) with a sparse Jacobian J(x) = ∂F/∂x, whose unknowns are of
+// kinds (Kind) that carry their own unit, scale, step limit and residual
+// floor: temperatures, pressures and mass flows of a thermal network, say,
+// paired with heat, mass and momentum balances.
 //
-// Convergence is declared only when both
-//   - the largest Newton step is below Settings.StepTolerance (K for a
-//     thermal network), and
-//   - the largest residual, divided by the scale Problem.Evaluate returns (the total heat
-//     moving through the network), is below Settings.ResidualTolerance.
+// Convergence is declared only when, at the current state,
+//   - every equation's residual |F_i| is within Settings.ResidualTolerance
+//     of that equation's own magnitude (the sum of the absolute terms that
+//     meet in it: the heat moving through that node, not through the whole
+//     network) plus its kind's ResidualFloor, and
+//   - every component of the full, undamped Newton step is within
+//     Settings.StepTolerance of its kind's Scale.
 //
-// Anything else ends with a StopReason that says why, and the caller must not
-// present the state as a solution.
+// A step the line search shortened, or a pseudo-transient step, is never
+// taken for convergence. Anything else ends with a StopReason that says
+// why, and the caller must not present the state as a solution. Result
+// reports the convergence of each kind separately and the worst equation.
 package solve
