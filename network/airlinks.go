@@ -10,43 +10,6 @@ import (
 	"github.com/heatgraph/heatgraph/network/units"
 )
 
-// airLinkKinds are the links that involve moving air.
-var airLinkKinds = []linkKind{
-	{
-		name:    "stream",
-		summary: "air carried from one node to the next at a given flow, with its heat",
-		keys:    []string{"flow", "mass_flow"},
-		parse:   parseStream,
-		ends:    []endRule{{"from", "the air's origin", airwayKinds}, {"to", "the air's destination", airwayKinds}},
-	},
-	{
-		name:    "channel",
-		summary: "forced convection from a wall to air in parallel channels or a plate-fin heat sink",
-		keys: []string{"inlet", "flow", "mass_flow", "length",
-			"fin_count", "fin_thickness", "fin_height", "base_width", "material", "conductivity", "isothermal_fins",
-			"shape", "width", "height", "diameter", "count", "turbulent", "laminar_entry", "upstream_length"},
-		parse: parseChannel,
-		ends: []endRule{{"from", "the wall", solidKinds}, {"inlet", "the inlet air", airwayKinds},
-			{"to", "the outlet air", []NodeKind{Air}}},
-	},
-	{
-		name:      "natural",
-		summary:   "natural convection from a surface: vertical, facing up, facing down, or vertical fins",
-		keys:      []string{"orientation", "height", "width", "length", "area", "fin_count", "fin_thickness", "fin_height", "fin_spacing", "material", "conductivity"},
-		defaultTo: AmbientID,
-		parse:     parseNatural,
-		ends:      surfaceRules,
-	},
-	{
-		name:      "flat-plate",
-		summary:   "forced convection from a flat wall in a stream of air of given velocity",
-		keys:      []string{"velocity", "length", "width", "area"},
-		defaultTo: AmbientID,
-		parse:     parseFlatPlate,
-		ends:      surfaceRules,
-	},
-}
-
 // massFlow reads flow (a volume flow of ambient air) or mass_flow.
 func massFlow(o *object, m *Model) (float64, bool) {
 	switch o.oneOf("a volume flow of ambient air such as 12 CFM, or a mass flow such as 6 g/s", "flow", "mass_flow") {

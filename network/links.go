@@ -1,8 +1,6 @@
 package network
 
 import (
-	"strings"
-
 	"github.com/heatgraph/heatgraph/elements"
 	"github.com/heatgraph/heatgraph/network/units"
 )
@@ -28,12 +26,17 @@ func (e linkEnv) givenFlow(mdot float64) int {
 	return e.net.addVar(Variable{Kind: MassFlowVar, Owner: e.link, Given: true, Value: mdot})
 }
 
-// linkKind describes one kind of link in the model file.
+// linkKind describes one kind of link in the model file; see
+// registerLinkKind.
 type linkKind struct {
 	name      string
+	order     int // place in listings
 	summary   string
-	keys      []string // keys besides id, kind, from, to, note
-	defaultTo string   // node used when "to" is omitted; "" makes it required
+	help      string    // what it models and how, a paragraph
+	sources   []string  // published sources of its physics
+	example   string    // a YAML list item
+	keys      []keySpec // keys besides id, kind, from, to, note
+	defaultTo string    // node used when "to" is omitted; "" makes it required
 	parse     func(o *object, m *Model) LinkParams
 	// ends says which kinds of node each end may be; ends other than
 	// from and to are further nodes the link joins.
@@ -56,83 +59,6 @@ var (
 
 // commonLinkKeys are accepted by every kind.
 var commonLinkKeys = []string{"id", "kind", "from", "to", "note"}
-
-// linkKinds lists every link kind, in the order the documentation
-// presents them.
-var linkKinds = append(append([]linkKind{}, solidLinkKinds...), airLinkKinds...)
-
-// solidLinkKinds are the links through solids, interfaces and surfaces.
-var solidLinkKinds = []linkKind{
-	{
-		name:    "conduction",
-		summary: "conduction through a slab or bar: k·A/L",
-		keys:    []string{"material", "conductivity", "area", "thickness", "length"},
-		parse:   parseConduction,
-		ends:    solidRules,
-	},
-	{
-		name:    "contact",
-		summary: "interface resistance: area-specific resistance over an area, or a total",
-		keys:    []string{"specific_resistance", "area", "resistance"},
-		parse:   parseContact,
-		ends:    solidRules,
-	},
-	{
-		name:    "lumped",
-		summary: "a resistance (K/W) or conductance (W/K) given directly",
-		keys:    []string{"resistance", "conductance"},
-		parse:   parseLumped,
-	},
-	{
-		name:      "convection",
-		summary:   "convection with a given heat transfer coefficient: h·A",
-		keys:      []string{"coefficient", "area"},
-		defaultTo: AmbientID,
-		parse:     parseConvection,
-	},
-	{
-		name:      "radiation",
-		summary:   "gray radiation to large surroundings, ε·σ·A·F·(T⁴ − T∞⁴), or between two gray surfaces",
-		keys:      []string{"emissivity", "area", "view_factor", "to_emissivity", "to_area"},
-		defaultTo: AmbientID,
-		parse:     parseRadiation,
-		ends:      solidRules,
-	},
-}
-
-// KindInfo describes a link kind for help texts.
-type KindInfo struct {
-	Name    string
-	Keys    string // the kind's own keys, comma-separated
-	Summary string
-}
-
-// LinkKindInfo describes every link kind, in the order the documentation
-// presents them.
-func LinkKindInfo() []KindInfo {
-	out := make([]KindInfo, len(linkKinds))
-	for i, k := range linkKinds {
-		out[i] = KindInfo{Name: k.name, Keys: strings.Join(k.keys, ", "), Summary: k.summary}
-	}
-	return out
-}
-
-func findLinkKind(name string) *linkKind {
-	for i := range linkKinds {
-		if linkKinds[i].name == name {
-			return &linkKinds[i]
-		}
-	}
-	return nil
-}
-
-func linkKindNames() []string {
-	out := make([]string, len(linkKinds))
-	for i, k := range linkKinds {
-		out[i] = k.name
-	}
-	return out
-}
 
 // Conduction is a slab or bar of one material.
 type Conduction struct {

@@ -347,7 +347,7 @@ func (r *reader) readLinks(n *yaml.Node, m *Model, ids map[string]nodeRef) []Lin
 			continue
 		}
 		l.Kind = kindName
-		o.checkKeys(append(append([]string{}, commonLinkKeys...), kind.keys...), "a "+kindName+" link")
+		o.checkKeys(append(append([]string{}, commonLinkKeys...), kind.keyNames()...), "a "+kindName+" link")
 		l.Note, _ = o.str("note")
 		l.From = r.endpoint(o, "from", "", ids, names)
 		l.To = r.endpoint(o, "to", kind.defaultTo, ids, names)

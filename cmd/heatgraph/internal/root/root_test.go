@@ -201,7 +201,7 @@ func TestSolveOutputFile(t *testing.T) {
 func TestCheck(t *testing.T) {
 	code, out, _ := run("check", examples+"outdoor-controller.yaml")
 	assert.Equal(t, exit.OK, code)
-	assert.Contains(t, out, "valid: 12 nodes (2 fixed, 10 free), 3 components, 19 links")
+	assert.Contains(t, out, "valid: 12 nodes (2 fixed), 10 unknowns, 3 components, 19 links")
 	code, _, stderr := run("check", "../../../../testdata/invalid/isolated.yaml")
 	assert.Equal(t, exit.BadInput, code)
 	assert.Contains(t, stderr, `nodes "shield", "can" have no path to any fixed temperature`)
