@@ -85,10 +85,10 @@ func Parse(file string, data []byte) (*Model, error) {
 	ids := map[string]nodeRef{AmbientID: {kind: Fixed}}
 	before := len(r.problems)
 	if n, ok := top.values["nodes"]; ok {
-		m.Nodes = r.readNodes(n, ids)
+		m.Nodes = r.readNodes(n, m, ids)
 	}
 	if n, ok := top.values["components"]; ok {
-		m.Components = r.readComponents(n, ids)
+		m.Components = r.readComponents(n, m, ids)
 	}
 	if len(m.Nodes) == 0 && len(m.Components) == 0 && len(r.problems) == before {
 		r.addf(top.node, "nodes", "the model has no nodes (add a nodes: list with at least one solid node)")
@@ -188,7 +188,7 @@ type nodeRef struct {
 	kind NodeKind
 }
 
-func (r *reader) readNodes(n *yaml.Node, ids map[string]nodeRef) []NodeSpec {
+func (r *reader) readNodes(n *yaml.Node, m *Model, ids map[string]nodeRef) []NodeSpec {
 	var out []NodeSpec
 	for i, item := range r.list(n, "nodes", "entries with id and kind") {
 		o := r.newObject(item, "nodes["+itoa(i)+"]")
@@ -220,15 +220,17 @@ func (r *reader) readNodes(n *yaml.Node, ids map[string]nodeRef) []NodeSpec {
 		spec.Note, _ = o.str("note")
 		switch spec.Kind {
 		case Solid:
-			o.checkKeys(solidKeys, "a solid node")
+			o.checkKeys(append(solidKeys, capacityKeys...), "a solid node")
 			spec.Power, _ = o.quantity("power", units.Power)
 			spec.Limit, spec.HasLimit = o.quantity("limit", units.Temperature)
+			spec.Capacity = readCapacity(o, m)
 		case Air:
 			if o.has("power") {
 				r.addf(o.values["power"], o.field("power"), "an air node takes no heat input; put the heat on a solid node that convects to it")
 			}
-			o.checkKeys(append(airKeys, "power"), "an air node")
+			o.checkKeys(append(append(airKeys, "power"), airCapacityKeys...), "an air node")
 			spec.Limit, spec.HasLimit = o.quantity("limit", units.Temperature)
+			spec.Capacity = readAirCapacity(o, m)
 		case Fixed:
 			if o.has("power") {
 				r.addf(o.values["power"], o.field("power"), "a fixed-temperature node cannot take a heat input (its temperature is given); put the heat on a solid node linked to it")
@@ -248,14 +250,14 @@ func (r *reader) readNodes(n *yaml.Node, ids map[string]nodeRef) []NodeSpec {
 
 var componentKeys = []string{"id", "power", "r_jc", "r_jb", "case", "board", "limit", "note"}
 
-func (r *reader) readComponents(n *yaml.Node, ids map[string]nodeRef) []ComponentSpec {
+func (r *reader) readComponents(n *yaml.Node, m *Model, ids map[string]nodeRef) []ComponentSpec {
 	var out []ComponentSpec
 	for i, item := range r.list(n, "components", "entries with id, power, r_jc/r_jb and the case and board nodes") {
 		o := r.newObject(item, "components["+itoa(i)+"]")
 		if o == nil {
 			continue
 		}
-		o.checkKeys(componentKeys, "a component")
+		o.checkKeys(append(componentKeys, capacityKeys...), "a component")
 		c := ComponentSpec{Line: item.Line}
 		id, okID := o.id("id")
 		if okID {
@@ -266,6 +268,7 @@ func (r *reader) readComponents(n *yaml.Node, ids map[string]nodeRef) []Componen
 		c.Note, _ = o.str("note")
 		c.Power, _ = o.required("power", units.Power)
 		c.Limit, c.HasLimit = o.quantity("limit", units.Temperature)
+		c.Capacity = readCapacity(o, m)
 		c.Case, _ = o.str("case")
 		c.Board, _ = o.str("board")
 		if c.Case != "" {

@@ -2,6 +2,7 @@ package network_test
 
 import (
 	"encoding/json"
+	"flag"
 	"math"
 	"os"
 	"path/filepath"
@@ -11,6 +12,8 @@ import (
 	"github.com/heatgraph/heatgraph/network"
 	"github.com/heatgraph/heatgraph/solve"
 )
+
+var updateResults = flag.Bool("update-results", false, "rewrite the golden results of every example (only when a change of results is intended and explained)")
 
 // goldenResult is what a solved model must keep through any change of the
 // solver or the element contract: every node temperature, every link's heat
@@ -79,7 +82,7 @@ func TestGoldenResults(t *testing.T) {
 		t.Run(name, func(t *testing.T) {
 			got := goldenOf(t, path)
 			file := filepath.Join("..", "testdata", "golden", name+".json")
-			if *update {
+			if *updateResults {
 				data, _ := json.MarshalIndent(got, "", "  ")
 				if err := os.WriteFile(file, append(data, '\n'), 0o644); err != nil {
 					t.Fatal(err)
@@ -88,7 +91,7 @@ func TestGoldenResults(t *testing.T) {
 			}
 			data, err := os.ReadFile(file)
 			if err != nil {
-				t.Fatalf("%v (run go test ./network -update to create it)", err)
+				t.Fatalf("%v (run go test ./network -run TestGoldenResults -update-results to create it)", err)
 			}
 			var want goldenResult
 			if err := json.Unmarshal(data, &want); err != nil {
