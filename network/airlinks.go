@@ -61,6 +61,14 @@ func (c *Channel) element(e linkEnv) (elements.Element, error) {
 		Geometry: c.Geometry, Options: c.Options, Upstream: c.Upstream}, nil
 }
 
+// The largest counts of fins and of parallel passages a link takes: far
+// more than any heat sink or cold plate has (a rule of thumb), and small
+// enough that areas computed from them stay sensible.
+const (
+	maxFins     = 1000
+	maxPassages = 100000
+)
+
 const finHint = "the fin material, e.g. material: aluminium-6063, or conductivity: 200 W/m/K"
 
 var (
@@ -83,7 +91,7 @@ func parseChannel(o *object, m *Model) LinkParams {
 				ok = false
 			}
 		}
-		n, okN := o.count("fin_count", 2)
+		n, okN := o.count("fin_count", 2, maxFins)
 		t, okT := o.positive("fin_thickness", units.Length, true)
 		h, okH := o.positive("fin_height", units.Length, true)
 		w, okW := o.positive("base_width", units.Length, true)
@@ -156,7 +164,7 @@ func passage(o *object, length float64) (duct.Duct, int, bool) {
 	n := 1
 	okN := true
 	if o.has("count") {
-		n, okN = o.count("count", 1)
+		n, okN = o.count("count", 1, maxPassages)
 	}
 	switch shape {
 	case "rectangular":
@@ -236,7 +244,7 @@ func parseNatural(o *object, m *Model) LinkParams {
 		n.Area, n.Length = l*w, l*w/(2*(l+w))
 	case "fins":
 		n.Orientation = elements.FinArray
-		cnt, ok1 := o.count("fin_count", 2)
+		cnt, ok1 := o.count("fin_count", 2, maxFins)
 		t, ok2 := o.positive("fin_thickness", units.Length, true)
 		h, ok3 := o.positive("fin_height", units.Length, true)
 		sp, ok4 := o.positive("fin_spacing", units.Length, true)

@@ -85,7 +85,7 @@ func parseConduction(o *object, m *Model) LinkParams {
 	case "length":
 		c.Length, okL = o.positive("length", units.Length, true)
 	}
-	if !ok || !okA || !okL {
+	if !ok || !okA || !okL || !o.checkConductance(c.Conductivity*c.Area/c.Length, "k·A/L") {
 		return nil
 	}
 	return c
@@ -111,7 +111,7 @@ func parseContact(o *object, _ *Model) LinkParams {
 	case "specific_resistance":
 		s, ok1 := o.positive("specific_resistance", units.SpecificResistance, true)
 		a, ok2 := o.positive("area", units.Area, true)
-		if ok1 && ok2 {
+		if ok1 && ok2 && o.checkConductance(a/s, "A/R″") {
 			c.Specific, c.Area = s, a
 			return c
 		}
@@ -164,7 +164,7 @@ func (c *Convection) element(e linkEnv) (elements.Element, error) {
 func parseConvection(o *object, _ *Model) LinkParams {
 	h, ok1 := o.positive("coefficient", units.HeatTransferCoefficient, true)
 	a, ok2 := o.positive("area", units.Area, true)
-	if !ok1 || !ok2 {
+	if !ok1 || !ok2 || !o.checkConductance(h*a, "h·A") {
 		return nil
 	}
 	return &Convection{Coefficient: h, Area: a}
