@@ -137,8 +137,12 @@ func checkText(data []byte) (int, string) {
 		case r == 0:
 			msg = "a NUL byte: a model file is text, and this looks like a binary file"
 		case r == '\t' || r == '\n' || r == '\r' || r == 0x85:
-		case r < 0x20 || r == 0x7F || (r >= 0x80 && r <= 0x9F) || r == 0xFEFF || r == 0xFFFE || r == 0xFFFF:
+		case r < 0x20 || r == 0x7F || (r >= 0x80 && r <= 0x9F):
 			msg = fmt.Sprintf("control character U+%04X is not allowed in a model file (of the control characters, only tab, line feed and carriage return are)", r)
+		case r == 0xFEFF:
+			msg = "a byte order mark (U+FEFF) is allowed only at the start of the file"
+		case r == 0xFFFE || r == 0xFFFF:
+			msg = fmt.Sprintf("U+%04X is not a character; save the file as UTF-8 text", r)
 		}
 		if msg != "" {
 			return lineAt(lineStarts(data), i), msg
