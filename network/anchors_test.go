@@ -153,8 +153,10 @@ func TestLongValuesAreShortened(t *testing.T) {
 	}
 }
 
-// A NUL byte or another control character is reported at its line.
+// A NUL byte or another control character is reported at its line; a
+// byte order mark at the start is allowed.
 func TestControlCharacters(t *testing.T) {
+	parseOK(t, "\uFEFFambient: {temperature: 25 degC}\nnodes: [{id: a, power: 1 W}]\nlinks: [{kind: convection, from: a, coefficient: 5 W/m2/K, area: 1 cm2}]\n")
 	for _, c := range []struct {
 		text string
 		line int
@@ -164,6 +166,7 @@ func TestControlCharacters(t *testing.T) {
 		{"title: a\x01b\n", 1, "U+0001"},
 		{"title: x\n\ntitle2: \xff\n", 3, "0xFF"},
 		{"\xff\xfet\x00i\x00", 1, "UTF-16"},
+		{"\uFEFFtitle: x\nnote: a\uFEFFb\n", 2, "byte order mark"},
 	} {
 		ps := problems(t, c.text)
 		if len(ps) != 1 || ps[0].Line != c.line || !strings.Contains(ps[0].Message, c.says) {

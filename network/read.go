@@ -378,14 +378,23 @@ const (
 // temperature reads an absolute temperature, which must lie between
 // minTemperature and maxTemperature.
 func (o *object) temperature(key string, need bool) (float64, bool) {
+	const valid = "a temperature in a model must lie between 1 K and 10000 K (-272.15 degC to 9726.85 degC)"
 	var t float64
 	var ok bool
+	before := len(o.r.problems)
 	if need {
 		t, ok = o.required(key, units.Temperature)
 	} else {
 		t, ok = o.quantity(key, units.Temperature)
 	}
 	if !ok {
+		// A value below absolute zero is refused by units.Parse; add the
+		// valid range to its message.
+		if len(o.r.problems) > before {
+			if p := &o.r.problems[len(o.r.problems)-1]; strings.Contains(p.Message, "below absolute zero") {
+				p.Message += "; " + valid
+			}
+		}
 		return 0, false
 	}
 	var what string
@@ -399,7 +408,7 @@ func (o *object) temperature(key string, need bool) (float64, bool) {
 	default:
 		return t, true
 	}
-	o.r.addf(o.values[key], o.field(key), "%q is %s; a temperature in a model must lie between 1 K and 10000 K (-272.15 degC to 9726.85 degC), e.g. %s", o.values[key].Value, what, example(units.Temperature))
+	o.r.addf(o.values[key], o.field(key), "%q is %s; %s, e.g. %s", o.values[key].Value, what, valid, example(units.Temperature))
 	return 0, false
 }
 

@@ -137,8 +137,12 @@ func checkText(data []byte) (int, string) {
 		case r == 0:
 			msg = "a NUL byte: a model file is text, and this looks like a binary file"
 		case r == '\t' || r == '\n' || r == '\r' || r == 0x85:
-		case r < 0x20 || r == 0x7F || (r >= 0x80 && r <= 0x9F) || r == 0xFEFF || r == 0xFFFE || r == 0xFFFF:
+		case r < 0x20 || r == 0x7F || (r >= 0x80 && r <= 0x9F):
 			msg = fmt.Sprintf("control character U+%04X is not allowed in a model file (of the control characters, only tab, line feed and carriage return are)", r)
+		case r == 0xFEFF:
+			msg = "a byte order mark (U+FEFF) is allowed only at the start of the file"
+		case r == 0xFFFE || r == 0xFFFF:
+			msg = fmt.Sprintf("U+%04X is not a character; save the file as UTF-8 text", r)
 		}
 		if msg != "" {
 			return lineAt(lineStarts(data), i), msg
@@ -234,7 +238,7 @@ func syntaxProblem(data []byte, fullErr error) (int, string) {
 		// Cannot happen: the blank line changes no meaning. Fall back to
 		// yaml.v3's own report.
 		line, p := splitYAMLError(yamlErrorText(fullErr))
-		return line, explainYAML(p, 0, line, "")
+		return line, explainYAML(p, 0, line, "", "")
 	}
 	want := yamlErrorText(err)
 	reported, problem := splitYAMLError(want)
@@ -290,7 +294,7 @@ func syntaxProblem(data []byte, fullErr error) (int, string) {
 			line = 1
 		}
 	}
-	return line, explainYAML(problem, context, line, lineText(data, line))
+	return line, explainYAML(problem, context, line, lineText(data, line), lineText(data, context))
 }
 
 // lineText returns line n (1-based) of data.
@@ -310,8 +314,8 @@ var unknownAnchor = regexp.MustCompile(`^unknown anchor '(.*)' referenced$`)
 
 // explainYAML words a yaml.v3 problem for the user: the problem was found
 // on line, whose text is text, within the construct that starts on line
-// context (0 when not known).
-func explainYAML(problem string, context, line int, text string) string {
+// context (0 when not known), whose text is contextText.
+func explainYAML(problem string, context, line int, text, contextText string) string {
 	const hint = " (check the indentation and that every key is followed by a colon and a space)"
 	opened := func(what, open, close string) string {
 		if context == 0 || context == line {
@@ -332,10 +336,17 @@ func explainYAML(problem string, context, line int, text string) string {
 		if strings.Contains(problem, "'-'") {
 			what = "list"
 		}
-		if context > 0 && context < line {
+		switch {
+		case context > 0 && context < line && linesUp(contextText, len(indent)):
+			return fmt.Sprintf("this line does not continue the %s that starts on line %d (a stray ']' or '}', a list entry among keys or a key among list entries?)", what, context)
+		case context > 0 && context < line:
 			return fmt.Sprintf("this line is indented differently from the %s that starts on line %d (entries of one mapping or list start in the same column, with spaces)", what, context)
 		}
 		return "this line's indentation does not match the lines around it (entries of one mapping or list start in the same column, with spaces)"
+	case problem == "did not find expected <document start>":
+		return "this line does not fit the top level: top-level keys start in the same column, and a file holds one YAML document"
+	case problem == "mapping values are not allowed in this context":
+		return "a ':' where no key can start (a key indented under a value, or a value with \": \" in it that needs quotes?)"
 	case problem == "did not find expected ',' or ']'":
 		return opened("list", "[", "]")
 	case problem == "did not find expected ',' or '}'":
@@ -347,6 +358,25 @@ func explainYAML(problem string, context, line int, text string) string {
 		return fmt.Sprintf("*%s refers to no value: define it before this line by writing &%s in front of the value to share", m[1], m[1])
 	}
 	return problem + hint
+}
+
+// linesUp reports whether a line indented by col spaces lines up with a
+// mapping or list that starts on a line of text: with its first
+// character, or with the content after a leading "- ".
+func linesUp(text string, col int) bool {
+	i := len(text) - len(strings.TrimLeft(text, " "))
+	for {
+		if i == col {
+			return true
+		}
+		if !strings.HasPrefix(text[i:], "- ") {
+			return false
+		}
+		i += 2
+		for i < len(text) && text[i] == ' ' {
+			i++
+		}
+	}
 }
 
 // secondDocument is the message for a YAML document after the first,
