@@ -7,7 +7,7 @@ import (
 
 	"github.com/heatgraph/heatgraph/elements"
 	"github.com/heatgraph/heatgraph/elements/viewfactor"
-	"github.com/heatgraph/heatgraph/network/units"
+	"github.com/heatgraph/heatgraph/units"
 	"gopkg.in/yaml.v3"
 )
 

@@ -4,7 +4,7 @@ import (
 	"strings"
 
 	"github.com/heatgraph/heatgraph/elements"
-	"github.com/heatgraph/heatgraph/network/units"
+	"github.com/heatgraph/heatgraph/units"
 )
 
 func init() {

@@ -3,7 +3,7 @@ package network
 import (
 	"github.com/heatgraph/heatgraph/elements/air"
 	"github.com/heatgraph/heatgraph/elements/dual"
-	"github.com/heatgraph/heatgraph/network/units"
+	"github.com/heatgraph/heatgraph/units"
 )
 
 // massFlow reads flow (a volume flow of ambient air) or mass_flow.

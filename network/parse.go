@@ -7,7 +7,7 @@ import (
 	"strings"
 
 	"github.com/heatgraph/heatgraph/elements/air"
-	"github.com/heatgraph/heatgraph/network/units"
+	"github.com/heatgraph/heatgraph/units"
 	"gopkg.in/yaml.v3"
 )
 
