@@ -27,6 +27,7 @@ type randomNet struct {
 	ambientC float64
 	nodes    []randomNode
 	links    []randomLink
+	pathR    []float64 // per node, the resistance of its tree path to the ambient, K/W
 }
 
 type randomNode struct {
@@ -129,8 +130,8 @@ const (
 	maxNodes = 40
 	maxPower = 50 // W, per node, and the most a property may add to one
 	// maxRise bounds the temperature rise of the linear network with the
-	// drawn conductances; see drawNet.
-	maxRise = 1000 // K
+	// drawn conductances, and again what a property may add; see drawNet.
+	maxRise = 500 // K
 	// minHeat is the least total heat input of a heated network: the
 	// solver's tolerance, 1e-9 of the heat input, must stay above the
 	// round-off of a node's heat sum, some ε·G·T for the strongest link,
@@ -154,11 +155,14 @@ const (
 //
 //   - Rises a solid can have. Newton steps are limited to Settings.MaxChange
 //     (200 K), so a rise of many thousand kelvin (20 W through 1e-3 W/K)
-//     runs out of iterations even on a linear network. The tree links'
-//     conductances are drawn at least (total input + maxPower)·n/maxRise,
-//     which bounds every tree path's resistance times the heat it can carry
-//     by maxRise; by Rayleigh's monotonicity law that bounds the rise of
-//     the linear network with the same nominal conductances.
+//     runs out of iterations even on a linear network. A heated node hangs
+//     on a tree path whose resistance times its heat is at most maxRise/n;
+//     as the rise at any node of a linear network is at most the sum over
+//     the heated nodes of their heat times their driving-point resistance
+//     (the maximum principle), and that resistance is at most the tree
+//     path's (Rayleigh's monotonicity law), the rise of the linear network
+//     with the same nominal conductances is at most maxRise. Unheated
+//     nodes hang on any link, however weak.
 //   - Heat against strong links. A total input below minHeat, with links of
 //     1e3 W/K, puts the solver's residual tolerance below the round-off of
 //     the heat sums: a linear three-node network with 0.02 W ends with "line
@@ -204,18 +208,26 @@ func drawNet(t *rapid.T) randomNet {
 		}
 		rn.links = append(rn.links, drawLink(t, i, kind, a, b, drawConductance(t, fmt.Sprintf("g%d", i), minG), ambientK))
 	}
-	// The tree: node i hangs on the ambient or on an earlier node.
-	treeG := 1e-3
-	if !*unlimited {
-		treeG = math.Max(treeG, math.Min((total+maxPower)*float64(n)/maxRise, 1e3))
-	}
+	// The tree: node i hangs on the ambient or on an earlier node by
+	// link i; rn.pathR[i] is the resistance of its path to the ambient.
 	for i := range n {
-		parent := rapid.IntRange(-1, i-1).Draw(t, fmt.Sprintf("parent%d", i))
-		to := network.AmbientID
-		if parent >= 0 {
-			to = rn.nodes[parent].id
+		budget := math.Inf(1) // the path resistance node i's heat allows
+		if p := rn.nodes[i].power; p > 0 && !*unlimited {
+			budget = maxRise / (float64(n) * p)
 		}
-		addLink(rn.nodes[i].id, to, treeG)
+		parents := []int{-1}
+		for j := range i {
+			if rn.pathR[j] <= budget/2 {
+				parents = append(parents, j)
+			}
+		}
+		parent := rapid.SampledFrom(parents).Draw(t, fmt.Sprintf("parent%d", i))
+		to, above := network.AmbientID, 0.0
+		if parent >= 0 {
+			to, above = rn.nodes[parent].id, rn.pathR[parent]
+		}
+		addLink(rn.nodes[i].id, to, math.Min(math.Max(1e-3, 1/(budget-above)), 1e3))
+		rn.pathR = append(rn.pathR, above+1/rn.links[i].g)
 	}
 	extra := rapid.IntRange(0, n).Draw(t, "extra_links")
 	for j := range extra {
@@ -423,7 +435,19 @@ func TestPropertyMoreHeatNeverCools(t *testing.T) {
 		k := rapid.IntRange(0, len(rn.nodes)-1).Draw(t, "heated")
 		more := rn
 		more.nodes = append([]randomNode(nil), rn.nodes...)
-		more.nodes[k].power += rapid.Float64Range(1e-5, 1).Draw(t, "added_fraction") * maxPower
+		least, most := 1e-3, float64(maxPower) // W
+		if !*unlimited {
+			// The generator limits of drawNet: at most maxRise more,
+			// and no less than minHeat in all.
+			most = math.Min(most, maxRise/rn.pathR[k])
+			if base.Balance.In == 0 {
+				least = minHeat
+			}
+			if most < least {
+				t.Skipf("node %s hangs on too weak a path to take %g W", rn.nodes[k].id, least)
+			}
+		}
+		more.nodes[k].power += rapid.Float64Range(least, most).Draw(t, "added_W")
 		hot := solveRandom(t, more.yaml(nil, nil))
 		t0, t1 := temperatures(base), temperatures(hot)
 		for id, before := range t0 {
