@@ -159,8 +159,13 @@ func onlyDetailsNonFinite(r *viz.Report) bool {
 	finite := func(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
 	found := false
 	for _, l := range r.Links {
-		if !finite(l.HeatW) || (l.CarriedW != nil && !finite(*l.CarriedW)) {
+		if !finite(l.HeatW) {
 			return false
+		}
+		for _, p := range l.Paths {
+			if !finite(p.HeatW) {
+				return false
+			}
 		}
 		for _, d := range l.Details {
 			if d.Value != nil && !finite(*d.Value) {
