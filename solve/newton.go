@@ -148,10 +148,10 @@ func Newton(p Problem, x0 []float64, s Settings) Result {
 		if stepOK && resOK {
 			res.Reason = Converged
 			res.SingularAtSolution = shifted
-			if !shifted {
-				// Take the last Newton step too: it is within
-				// tolerance, and Newton's method squares the error.
-				// Keep it only if the residual stays within tolerance.
+			{
+				// Take the last step too: it is within tolerance,
+				// and Newton's method squares the error. Keep it
+				// only if the residual stays within tolerance.
 				for i := range w.trial {
 					w.trial[i] = x[i] + w.step[i]
 				}
@@ -484,6 +484,17 @@ func (w *work) pseudoStep(x []float64) error {
 	dtau := w.s.PseudoStep / rate
 	if w.dtau > 0 {
 		dtau = math.Max(dtau, 2*w.dtau)
+	}
+	// However small the residual, the shift stays above 1e-10 of each
+	// row's largest entry, so that the shifted matrix is regular.
+	for i := 0; i < n; i++ {
+		big := 0.0
+		for k := w.jac.RowPtr[i]; k < w.jac.RowPtr[i+1]; k++ {
+			big = math.Max(big, math.Abs(w.jac.Val[k]))
+		}
+		if big > 0 {
+			dtau = math.Min(dtau, w.capacity[i]/(1e-10*big))
+		}
 	}
 	var err error
 	defer func() { w.dtau = dtau }()
