@@ -22,6 +22,8 @@ type Steady struct {
 	mag   []float64 // magnitude of the terms of every equation
 	ev    evaluator
 	state elements.State
+	capM  *sparse.Matrix // work space of Capacity
+	capE  []float64
 }
 
 // Steady returns a new steady-state problem for the network.
@@ -134,13 +136,14 @@ func (p *Steady) Capacity(x, c []float64) {
 	if len(p.net.asm.storing) == 0 {
 		return
 	}
-	m := p.Pattern()
-	e := make([]float64, len(c))
-	if err := p.Stored(x, e, m); err != nil {
+	if p.capM == nil {
+		p.capM, p.capE = p.Pattern(), make([]float64, len(c))
+	}
+	if err := p.Stored(x, p.capE, p.capM); err != nil {
 		return
 	}
 	for i := range c {
-		c[i] = m.At(i, i)
+		c[i] = p.capM.At(i, i)
 	}
 }
 
