@@ -81,7 +81,7 @@ func Run(o *Options) error {
 	if err != nil {
 		return exit.With(exit.OutputFailed, "%v", err)
 	}
-	if err := pipeline.WriteFile(o.Output, data); err != nil {
+	if err := pipeline.WriteFile(o.Output, data, o.Model); err != nil {
 		return err
 	}
 	fmt.Fprintf(o.IO.ErrOut, "wrote %s; %s\n", o.Output, viz.Verdict(out.Solution))

@@ -273,3 +273,25 @@ func abs(x float64) float64 {
 	}
 	return x
 }
+
+// -o naming the model itself is a command-line mistake: exit 2, the model
+// untouched, and no usage hint.
+func TestOutputOverInputRefused(t *testing.T) {
+	path := writeModel(t, overLimit)
+	for _, args := range [][]string{
+		{"solve", path, "-o", path},
+		{"solve", path, "-o", filepath.Join(filepath.Dir(path), ".", filepath.Base(path))},
+		{"graph", path, "-o", path + ".dot"},
+	} {
+		if args[0] == "graph" {
+			require.NoError(t, os.Symlink(path, args[3]))
+		}
+		code, _, stderr := run(args...)
+		assert.Equal(t, exit.BadInput, code, "%v: %s", args, stderr)
+		assert.Contains(t, stderr, "refusing to write over the input file")
+		assert.NotContains(t, stderr, "--help")
+		data, err := os.ReadFile(path)
+		require.NoError(t, err)
+		assert.Equal(t, overLimit, string(data))
+	}
+}

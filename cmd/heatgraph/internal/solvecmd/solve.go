@@ -123,7 +123,7 @@ func (o *Options) check() error {
 // emit writes the finished report to the output file or standard output.
 func (o *Options) emit(data []byte) error {
 	if o.Output != "" {
-		return pipeline.WriteFile(o.Output, data)
+		return pipeline.WriteFile(o.Output, data, o.Model)
 	}
 	return write(o.IO.Out, data)
 }
