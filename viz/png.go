@@ -9,13 +9,15 @@ import (
 	"strconv"
 	"strings"
 
+	"github.com/awalterschulze/gographviz"
+	"github.com/awalterschulze/gographviz/ast"
 	"github.com/fogleman/gg"
-	"github.com/goccy/go-graphviz"
-	"github.com/goccy/go-graphviz/cgraph"
 	"github.com/golang/freetype/truetype"
 	"golang.org/x/image/font"
 	"golang.org/x/image/font/gofont/gobold"
 	"golang.org/x/image/font/gofont/goregular"
+
+	"github.com/heatgraph/heatgraph/viz/internal/engine"
 )
 
 // pngScale is the number of pixels per typographic point of the layout:
@@ -29,26 +31,19 @@ const pngScale = 2.0
 // (polygons, Bézier curves, ellipses, text with its font and colours),
 // which this function paints with a 2-D vector library. Painting the
 // primitives ourselves keeps the picture identical to the SVG output.
-func renderPNG(gv *graphviz.Graphviz, dot string) ([]byte, error) {
-	ctx := context.Background()
-	graph, err := graphviz.ParseBytes([]byte(dot))
+func renderPNG(ctx context.Context, dot string) ([]byte, error) {
+	xdot, err := engine.Render(ctx, dot, engine.XDOT)
 	if err != nil {
-		return nil, fmt.Errorf("reading the diagram: %w", err)
+		return nil, err
 	}
-	defer graph.Close()
-	var xdot bytes.Buffer
-	if err := gv.Render(ctx, graph, graphviz.Format("xdot"), &xdot); err != nil {
-		return nil, fmt.Errorf("laying out the diagram: %w", err)
-	}
-	laid, err := graphviz.ParseBytes(xdot.Bytes())
+	laid, err := readXdot(xdot)
 	if err != nil {
 		return nil, fmt.Errorf("reading the layout: %w", err)
 	}
-	defer laid.Close()
 
 	var bb [4]float64
-	if _, err := fmt.Sscanf(laid.GetStr("bb"), "%g,%g,%g,%g", &bb[0], &bb[1], &bb[2], &bb[3]); err != nil {
-		return nil, fmt.Errorf("reading the layout's bounding box %q: %w", laid.GetStr("bb"), err)
+	if _, err := fmt.Sscanf(laid.attrs["bb"], "%g,%g,%g,%g", &bb[0], &bb[1], &bb[2], &bb[3]); err != nil {
+		return nil, fmt.Errorf("reading the layout's bounding box %q: %w", laid.attrs["bb"], err)
 	}
 	const margin = 8.0 // points
 	width := int(math.Ceil((bb[2] - bb[0] + 2*margin) * pngScale))
@@ -63,22 +58,17 @@ func renderPNG(gv *graphviz.Graphviz, dot string) ([]byte, error) {
 	p.dc.Clear()
 
 	var ops []string
-	ops = append(ops, laid.GetStr("_draw_"))
-	ops = append(ops, clusterOps(laid)...)
-	node, err := laid.FirstNode()
-	for ; err == nil && node != nil; node, err = laid.NextNode(node) {
-		ops = append(ops, node.GetStr("_draw_"), node.GetStr("_ldraw_"))
+	ops = append(ops, laid.attrs["_draw_"])
+	ops = append(ops, laid.clusterOps()...)
+	for _, n := range laid.nodes {
+		ops = append(ops, n["_draw_"], n["_ldraw_"])
 	}
-	node, err = laid.FirstNode()
-	for ; err == nil && node != nil; node, err = laid.NextNode(node) {
-		edge, eerr := laid.FirstOut(node)
-		for ; eerr == nil && edge != nil; edge, eerr = laid.NextOut(edge) {
-			for _, a := range []string{"_draw_", "_tdraw_", "_hdraw_", "_ldraw_", "_tldraw_", "_hldraw_"} {
-				ops = append(ops, edge.GetStr(a))
-			}
+	for _, e := range laid.edges {
+		for _, a := range []string{"_draw_", "_tdraw_", "_hdraw_", "_ldraw_", "_tldraw_", "_hldraw_"} {
+			ops = append(ops, e[a])
 		}
 	}
-	ops = append(ops, laid.GetStr("_ldraw_"))
+	ops = append(ops, laid.attrs["_ldraw_"])
 	for _, o := range ops {
 		if err := p.paint(o); err != nil {
 			return nil, err
@@ -91,14 +81,76 @@ func renderPNG(gv *graphviz.Graphviz, dot string) ([]byte, error) {
 	return out.Bytes(), nil
 }
 
+// xdotGraph is a laid-out graph read from xdot output: the attributes of
+// the graph, of each subgraph, and of every node and edge in file order.
+type xdotGraph struct {
+	attrs    map[string]string
+	clusters []*xdotGraph
+	nodes    []map[string]string
+	edges    []map[string]string
+}
+
+// readXdot reads Graphviz's xdot output. It walks the syntax tree rather
+// than building a checked graph, since the drawing attributes (_draw_ …)
+// are not in the DOT attribute list.
+func readXdot(data []byte) (*xdotGraph, error) {
+	tree, err := gographviz.Parse(data)
+	if err != nil {
+		return nil, err
+	}
+	g := &xdotGraph{attrs: map[string]string{}}
+	g.add(tree.StmtList, g)
+	return g, nil
+}
+
+func (g *xdotGraph) add(list ast.StmtList, top *xdotGraph) {
+	for _, s := range list {
+		switch s := s.(type) {
+		case ast.GraphAttrs:
+			for k, v := range ast.AttrList(s).GetMap() {
+				g.attrs[k] = unquote(v)
+			}
+		case *ast.Attr:
+			g.attrs[s.Field.String()] = unquote(s.Value.String())
+		case *ast.NodeStmt:
+			top.nodes = append(top.nodes, attrMap(s.Attrs))
+		case *ast.EdgeStmt:
+			top.edges = append(top.edges, attrMap(s.Attrs))
+		case *ast.SubGraph:
+			sub := &xdotGraph{attrs: map[string]string{}}
+			sub.add(s.StmtList, top)
+			g.clusters = append(g.clusters, sub)
+		}
+	}
+}
+
+func attrMap(l ast.AttrList) map[string]string {
+	m := l.GetMap()
+	for k, v := range m {
+		m[k] = unquote(v)
+	}
+	return m
+}
+
+// unquote returns the text of a DOT string: without its quotes, with
+// escaped quotes restored and line continuations (backslash, newline)
+// removed.
+func unquote(s string) string {
+	if len(s) < 2 || s[0] != '"' || s[len(s)-1] != '"' {
+		return s
+	}
+	s = s[1 : len(s)-1]
+	s = strings.ReplaceAll(s, "\\\n", "")
+	return strings.ReplaceAll(s, `\"`, `"`)
+}
+
 // clusterOps returns the drawing operations of every subgraph, nested ones
 // after their parents.
-func clusterOps(g *cgraph.Graph) []string {
+func (g *xdotGraph) clusterOps() []string {
 	var ops []string
-	sub, err := g.FirstSubGraph()
-	for ; err == nil && sub != nil; sub, err = sub.NextSubGraph() {
-		ops = append(ops, sub.GetStr("_draw_"), sub.GetStr("_ldraw_"))
-		ops = append(ops, clusterOps(sub)...)
+	for _, sub := range g.clusters {
+		ops = append(ops, sub.attrs["_draw_"], sub.attrs["_ldraw_"])
+		ops = append(ops, sub.clusterOps()...)
 	}
 	return ops
 }

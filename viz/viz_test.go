@@ -2,6 +2,7 @@ package viz
 
 import (
 	"bytes"
+	"context"
 	"encoding/json"
 	"image/color"
 	"strings"
@@ -126,10 +127,10 @@ func TestRenderFormats(t *testing.T) {
 	sol, _ := solved(t)
 	dot, err := DOT(sol, ColourTemperature)
 	require.NoError(t, err)
-	svg, err := Render(dot, FormatSVG)
+	svg, err := Render(context.Background(), dot, FormatSVG)
 	require.NoError(t, err)
 	assert.Contains(t, string(svg), "<svg")
-	png, err := Render(dot, FormatPNG)
+	png, err := Render(context.Background(), dot, FormatPNG)
 	require.NoError(t, err)
 	assert.True(t, bytes.HasPrefix(png, []byte("\x89PNG")))
 	_, err = FormatFor("x.pdf")

@@ -80,3 +80,64 @@ func TestSignalRemovesTemporary(t *testing.T) {
 		assert.Empty(t, entries, "%v: nothing may be left behind", sig)
 	}
 }
+
+// entries lists what a folder holds, recursively.
+func entries(t *testing.T, dir string) []string {
+	t.Helper()
+	var names []string
+	require.NoError(t, filepath.WalkDir(dir, func(path string, d os.DirEntry, err error) error {
+		if err == nil && path != dir {
+			names = append(names, path)
+		}
+		return err
+	}))
+	return names
+}
+
+// check and solve must not start the diagram engine: it compiles code and
+// keeps a cache, which costs time and memory and fails in folders of other
+// users. Nothing may appear in the temporary or cache folders.
+func TestNonDrawingCommandsLeaveCachesAlone(t *testing.T) {
+	tmp, home, cache := t.TempDir(), t.TempDir(), t.TempDir()
+	for _, d := range []string{tmp, home, cache} {
+		require.NoError(t, os.Chmod(d, 0o500))
+		defer os.Chmod(d, 0o700)
+	}
+	env := []string{"TMPDIR=" + tmp, "HOME=" + home, "XDG_CACHE_HOME=" + cache}
+	for _, args := range [][]string{
+		{"check", "../../examples/bench-logger.yaml"},
+		{"solve", "../../examples/bench-logger.yaml"},
+		{"solve", "../../examples/bench-logger.yaml", "-f", "json"},
+	} {
+		out, err := program(t, env, args...).CombinedOutput()
+		assert.Equal(t, 0, exitCode(err), "%v: %s", args, out)
+		assert.NotContains(t, string(out), "panic")
+	}
+	assert.Empty(t, entries(t, tmp), "the temporary folder was used")
+	assert.Empty(t, entries(t, home), "the home folder was used")
+	assert.Empty(t, entries(t, cache), "the cache folder was used")
+}
+
+// The diagram engine caches compiled code only in a private folder of the
+// user's cache; without one it compiles in memory. It never uses the
+// shared temporary folder.
+func TestGraphCacheFolder(t *testing.T) {
+	tmp, cache := t.TempDir(), t.TempDir()
+	out := filepath.Join(t.TempDir(), "g.svg")
+	env := []string{"TMPDIR=" + tmp, "XDG_CACHE_HOME=" + cache}
+	msg, err := program(t, env, "graph", "../../examples/bench-logger.yaml", "-o", out).CombinedOutput()
+	require.Equal(t, 0, exitCode(err), "%s", msg)
+	assert.FileExists(t, out)
+	fi, err := os.Stat(filepath.Join(cache, "heatgraph", "layout"))
+	require.NoError(t, err)
+	assert.Equal(t, os.FileMode(0o700), fi.Mode().Perm())
+	assert.Empty(t, entries(t, tmp))
+
+	// No usable cache folder at all: HOME and XDG_CACHE_HOME name files.
+	file := filepath.Join(t.TempDir(), "not-a-folder")
+	require.NoError(t, os.WriteFile(file, nil, 0o600))
+	env = []string{"TMPDIR=" + tmp, "HOME=" + file, "XDG_CACHE_HOME=" + file}
+	msg, err = program(t, env, "graph", "../../examples/bench-logger.yaml", "-o", out).CombinedOutput()
+	require.Equal(t, 0, exitCode(err), "%s", msg)
+	assert.Empty(t, entries(t, tmp))
+}
