@@ -4,7 +4,9 @@ import (
 	"bytes"
 	"context"
 	"encoding/json"
+	"fmt"
 	"image/color"
+	"regexp"
 	"strings"
 	"testing"
 
@@ -165,4 +167,59 @@ links:
 	require.NoError(t, err)
 	assert.Contains(t, dot, `"mid"->"out"`)
 	assert.Contains(t, dot, `label="10 W"`)
+}
+
+// Parallel links between two nodes become one arrow with their heat
+// summed and the parts in the tooltip; a fixed node with several links is
+// drawn at each of them. Every node still shows its temperature, and the
+// arrows still point the way heat flows.
+func TestDOTMergesParallelLinksAndSplitsFixedNodes(t *testing.T) {
+	sol := solveChain(t, 5)
+	dot, err := DOT(sol, ColourMargin)
+	require.NoError(t, err)
+	for i := range 5 {
+		var conv, rad float64
+		for _, l := range sol.Links {
+			switch l.ID {
+			case fmt.Sprintf("c%d", i):
+				conv = l.Heat
+			case fmt.Sprintf("r%d", i):
+				rad = l.Heat
+			}
+		}
+		require.Positive(t, conv)
+		require.Positive(t, rad)
+		// One arrow from n<i> to its own copy of ambient, labelled with the
+		// sum, its tooltip naming both links.
+		re := regexp.MustCompile(fmt.Sprintf(`"n%d"->"ambient#\d+"\[[^\]]*label="([^"]+) W"[^\]]*tooltip="2 links, [^"]*c%d \(convection\) [^"]*; r%d \(radiation\) [^"]*"`, i, i, i))
+		m := re.FindStringSubmatch(dot)
+		require.NotNil(t, m, "n%d: one merged arrow to ambient", i)
+		assert.Equal(t, fmt.Sprintf("%.3g", conv+rad), m[1])
+		assert.Contains(t, dot, fmt.Sprintf(`label="n%d\n`, i), "every node is drawn with its temperature")
+	}
+	assert.Equal(t, 5, strings.Count(dot, `label="ambient\n25.0 °C"`), "ambient drawn once per link")
+	assert.Equal(t, 5, strings.Count(dot, "->\"ambient#"))
+	// The heat enters at n0 and flows down the chain.
+	for i := range 4 {
+		assert.Contains(t, dot, fmt.Sprintf(`"n%d"->"n%d"`, i, i+1))
+	}
+	assert.Contains(t, dot, "a fixed node is drawn")
+}
+
+// heatEdges sums links in both orientations and points the arrow the way
+// the net heat flows.
+func TestHeatEdges(t *testing.T) {
+	sol := &network.Solution{Links: []network.LinkResult{
+		{ID: "a", Kind: "lumped", From: "x", To: "y", Heat: 2},
+		{ID: "b", Kind: "lumped", From: "y", To: "x", Heat: 5},
+		{ID: "s", Kind: "stream", From: "x", To: "y", Heat: 1},
+	}}
+	edges := heatEdges(sol)
+	require.Len(t, edges, 2, "heat carried by air is kept apart")
+	assert.Equal(t, "y", edges[0].from)
+	assert.Equal(t, "x", edges[0].to)
+	assert.InDelta(t, 3, edges[0].heat, 1e-12)
+	assert.Equal(t, "2 links, 3 W in all: a (lumped) -2 W; b (lumped) 5 W", edges[0].tooltip())
+	assert.True(t, edges[1].air)
+	assert.Equal(t, "x", edges[1].from)
 }

@@ -295,3 +295,15 @@ func TestOutputOverInputRefused(t *testing.T) {
 		assert.Equal(t, overLimit, string(data))
 	}
 }
+
+// A layout that runs out of time stops with a message that names the
+// diagram's size and what to do, exit status 4, and no file.
+func TestGraphLayoutTimeout(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "g.svg")
+	code, _, stderr := run("graph", examples+"outdoor-controller.yaml", "-o", path, "--layout-timeout", "1ns")
+	assert.Equal(t, exit.OutputFailed, code, stderr)
+	assert.Contains(t, stderr, "the diagram of 12 nodes and 19 links was not laid out within 1ns")
+	assert.Contains(t, stderr, "draw fewer nodes")
+	assert.NotContains(t, stderr, "--help for usage")
+	assert.NoFileExists(t, path)
+}
