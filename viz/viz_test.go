@@ -6,10 +6,12 @@ import (
 	"encoding/json"
 	"fmt"
 	"image/color"
+	"math"
 	"regexp"
 	"strings"
 	"testing"
 
+	"github.com/heatgraph/heatgraph/elements"
 	"github.com/heatgraph/heatgraph/network"
 	"github.com/heatgraph/heatgraph/solve"
 	"github.com/stretchr/testify/assert"
@@ -68,9 +70,9 @@ func TestJSONFullPrecision(t *testing.T) {
 	require.NoError(t, WriteJSON(&buf, NewReport(sol.Net.Model, sol, run)))
 	var r Report
 	require.NoError(t, json.Unmarshal(buf.Bytes(), &r))
-	assert.Equal(t, sol.Nodes[1].Temperature-273.15, r.Nodes[1].TemperatureC)
-	assert.Equal(t, sol.Links[1].Heat, r.Links[1].HeatW)
-	assert.InDelta(t, -1.5, r.Links[1].HeatW, 1e-12)
+	assert.Equal(t, sol.Nodes[1].Temperature-273.15, float64(r.Nodes[1].TemperatureC))
+	assert.Equal(t, sol.Links[1].Heat, float64(r.Links[1].HeatW))
+	assert.InDelta(t, -1.5, float64(r.Links[1].HeatW), 1e-12)
 	assert.Equal(t, []string(nil), r.Exceeded)
 }
 
@@ -222,4 +224,80 @@ func TestHeatEdges(t *testing.T) {
 	assert.Equal(t, "2 links, 3 W in all: a (lumped) -2 W; b (lumped) 5 W", edges[0].tooltip())
 	assert.True(t, edges[1].air)
 	assert.Equal(t, "x", edges[1].from)
+}
+
+// No report writes a number that is not finite as if it were one: JSON
+// writes null (a detail is left out), CSV leaves the cell empty, text says
+// "not finite", and each gets a warning naming the item and quantity.
+func TestNonFiniteNumbers(t *testing.T) {
+	sol, run := solved(t)
+	sol.Links[0].Heat = math.Inf(1)
+	sol.Links[0].Details = append(sol.Links[0].Details,
+		elements.Detail{Name: "friction_factor", Value: math.Inf(1)},
+		elements.Detail{Name: "h", Value: 5, Unit: "W/(m2 K)"})
+	sol.Nodes[1].Margin = math.NaN()
+	run.Residual = math.Inf(1)
+
+	warnings := NonFinite(sol)
+	assert.Contains(t, warnings, "link up: heat is infinite, not a finite number; its value is left out")
+	assert.Contains(t, warnings, "link up: friction factor is infinite, not a finite number; it is not reported")
+	assert.Contains(t, warnings, "node chip: margin is undefined (NaN), not a finite number; its value is left out")
+
+	var buf bytes.Buffer
+	require.NoError(t, WriteJSON(&buf, NewReport(sol.Net.Model, sol, run)))
+	var doc map[string]any
+	require.NoError(t, json.Unmarshal(buf.Bytes(), &doc), buf.String())
+	links := doc["links"].([]any)
+	up := links[0].(map[string]any)
+	assert.Nil(t, up["heat_W"])
+	assert.Contains(t, up, "heat_W", "a field that cannot be left out is null")
+	for _, d := range up["details"].([]any) {
+		assert.NotEqual(t, "friction_factor", d.(map[string]any)["name"])
+	}
+	assert.Contains(t, up["warnings"], "link up: friction factor is infinite, not a finite number; it is not reported")
+	assert.Nil(t, doc["solver"].(map[string]any)["max_residual_W"])
+	assert.Contains(t, doc["warnings"], "solver: largest residual is infinite, not a finite number; its value is left out")
+	assert.Contains(t, doc["warnings"], "link up: heat is infinite, not a finite number; its value is left out")
+
+	buf.Reset()
+	require.NoError(t, WriteCSV(&buf, sol))
+	assert.Contains(t, buf.String(), "link,up,lumped,chip,ambient,,,,,,\n")
+	assert.NotRegexp(t, `(?i)inf|nan`, buf.String())
+
+	buf.Reset()
+	require.NoError(t, WriteText(&buf, sol, run, ByFile))
+	assert.Contains(t, buf.String(), "link up: heat is infinite")
+	// The same report without the bad numbers has no warnings section.
+	clean, cleanRun := solved(t)
+	buf.Reset()
+	require.NoError(t, WriteText(&buf, clean, cleanRun, ByFile))
+	assert.NotContains(t, buf.String(), "warnings")
+	assert.Equal(t, "friction factor not finite (see warnings)", detailText(elements.Detail{Name: "friction_factor", Value: math.Inf(1)}))
+}
+
+func TestNumberJSON(t *testing.T) {
+	for _, c := range []struct {
+		x    float64
+		want string
+	}{{1.5, "1.5"}, {1e-319, "1e-319"}, {math.Inf(1), "null"}, {math.Inf(-1), "null"}, {math.NaN(), "null"}} {
+		b, err := json.Marshal(Number(c.x))
+		require.NoError(t, err)
+		assert.Equal(t, c.want, string(b))
+	}
+	var n Number
+	require.NoError(t, json.Unmarshal([]byte("null"), &n))
+	assert.True(t, math.IsNaN(float64(n)))
+}
+
+func TestTextNotFinite(t *testing.T) {
+	sol, run := solved(t)
+	sol.Links[0].Heat = math.Inf(-1)
+	sol.Balance.Imbalance = math.NaN()
+	var buf bytes.Buffer
+	require.NoError(t, WriteText(&buf, sol, run, ByFile))
+	tables, _, _ := strings.Cut(buf.String(), "\nwarnings\n")
+	assert.NotRegexp(t, `(?i)\binf\b|nan\b`, tables, "numbers that are not finite are not printed as numbers")
+	assert.Contains(t, buf.String(), "not finite  chip → ambient")
+	assert.Contains(t, buf.String(), "link up: heat is negatively infinite")
+	assert.Contains(t, buf.String(), "energy balance: imbalance is undefined (NaN)")
 }

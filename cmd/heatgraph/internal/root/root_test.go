@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"encoding/csv"
 	"encoding/json"
+	"errors"
 	"image/png"
 	"os"
 	"path/filepath"
@@ -12,6 +13,7 @@ import (
 
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
+	"github.com/spf13/cobra"
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 )
@@ -306,4 +308,101 @@ func TestGraphLayoutTimeout(t *testing.T) {
 	assert.Contains(t, stderr, "draw fewer nodes")
 	assert.NotContains(t, stderr, "--help for usage")
 	assert.NoFileExists(t, path)
+}
+
+// A conductance too small for its reciprocal to be finite: the link's
+// resistance is infinite. Before, the JSON encoder failed on it and the
+// run ended with exit status 2 and a usage hint.
+const denormal = `
+ambient: {temperature: 25 degC}
+nodes:
+  - {id: chip, power: 1 W, limit: 90 degC}
+  - {id: lid}
+links:
+  - {id: weak, kind: lumped, from: chip, to: lid, conductance: 1e-320 W/K}
+  - {id: main, kind: lumped, from: chip, to: ambient, resistance: 10 K/W}
+  - {id: skin, kind: convection, from: lid, coefficient: 5 W/m2/K, area: 0.01 m2}
+`
+
+func TestNonFiniteDetails(t *testing.T) {
+	path := writeModel(t, denormal)
+	code, out, stderr := run("solve", path, "-f", "json")
+	require.Equal(t, exit.OK, code, stderr)
+	assert.NotContains(t, stderr, "--help")
+	require.True(t, json.Valid([]byte(out)), out)
+	var doc struct {
+		Links []struct {
+			ID      string `json:"id"`
+			Details []struct {
+				Name  string   `json:"name"`
+				Value *float64 `json:"value"`
+			} `json:"details"`
+			Warnings []string `json:"warnings"`
+		} `json:"links"`
+		Warnings []string `json:"warnings"`
+	}
+	require.NoError(t, json.Unmarshal([]byte(out), &doc))
+	const warning = "link weak: R is infinite, not a finite number; it is not reported"
+	assert.Contains(t, doc.Warnings, warning)
+	for _, l := range doc.Links {
+		if l.ID != "weak" {
+			continue
+		}
+		assert.Contains(t, l.Warnings, warning)
+		for _, d := range l.Details {
+			assert.NotEqual(t, "R", d.Name, "the infinite resistance is left out")
+		}
+	}
+	for _, format := range []string{"text", "csv"} {
+		code, out, stderr = run("solve", path, "-f", format)
+		require.Equal(t, exit.OK, code, stderr)
+		assert.NotRegexp(t, `(?i)\binf\b|NaN`, out, format)
+	}
+}
+
+// An error that reaches Main without an exit code is a bug: exit status 4,
+// a request to report it, and no usage hint.
+func TestUncodedErrorIsInternal(t *testing.T) {
+	ios, _, _, errOut := iostreams.Test()
+	cmd := NewCmd(ios)
+	for _, sub := range cmd.Commands() {
+		if sub.Name() == "materials" {
+			sub.Run, sub.RunE = nil, func(*cobra.Command, []string) error { return errors.New("json: unsupported value: +Inf") }
+			classify(sub)
+		}
+	}
+	cmd.SetArgs([]string{"materials"})
+	err := cmd.Execute()
+	var ee *exit.Error
+	require.ErrorAs(t, err, &ee)
+	assert.Equal(t, exit.Internal, ee.Code)
+	assert.Contains(t, err.Error(), "please report it")
+	assert.Empty(t, errOut.String())
+}
+
+// A panic ends with exit status 4 and one line that says what happened,
+// then the request to report it.
+func TestPanicIsInternal(t *testing.T) {
+	ios, _, _, errOut := iostreams.Test()
+	code := guard(ios, func() int { panic("index out of range\nsecond line") })
+	assert.Equal(t, 4, code)
+	lines := strings.Split(strings.TrimSpace(errOut.String()), "\n")
+	require.Len(t, lines, 2, errOut.String())
+	assert.Equal(t, "heatgraph: internal error: index out of range second line", lines[0])
+	assert.Contains(t, lines[1], "please report it")
+	assert.NotContains(t, errOut.String(), "--help")
+}
+
+// Only command-line mistakes get the usage hint; a solve without a
+// solution and a failed write do not.
+func TestUsageHintOnlyForCommandLine(t *testing.T) {
+	code, _, stderr := run("solve", writeModel(t, noSolution))
+	assert.Equal(t, exit.NotConverged, code)
+	assert.NotContains(t, stderr, "--help")
+	code, _, stderr = run("solve", examples+"bench-logger.yaml", "-o", filepath.Join(t.TempDir(), "missing", "r.txt"))
+	assert.Equal(t, exit.OutputFailed, code)
+	assert.NotContains(t, stderr, "--help")
+	code, _, stderr = run("solve", examples+"bench-logger.yaml", "--no-such-flag")
+	assert.Equal(t, exit.BadInput, code)
+	assert.Contains(t, stderr, "--help")
 }
