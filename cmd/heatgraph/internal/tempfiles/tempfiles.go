@@ -13,6 +13,13 @@ import (
 var (
 	mu   sync.Mutex
 	live = map[string]struct{}{}
+
+	// The signal handler: exit is set by HandleSignals; the handler starts
+	// listening when the first file is tracked (sigs not nil), so that a
+	// run that writes no file never sets one up (it costs a thread).
+	exit func(int)
+	sigs chan os.Signal
+	done chan struct{}
 )
 
 // Track records name as a live temporary file. Call it before the file is
@@ -21,6 +28,9 @@ var (
 func Track(name string) (untrack func()) {
 	mu.Lock()
 	live[name] = struct{}{}
+	if exit != nil && sigs == nil {
+		listenLocked()
+	}
 	mu.Unlock()
 	return func() {
 		mu.Lock()
@@ -66,10 +76,31 @@ func ExitCode(sig os.Signal) int {
 
 // HandleSignals installs a handler for SIGINT and SIGTERM that removes the
 // tracked files and ends the program with ExitCode. exit is os.Exit in the
-// program; stop removes the handler.
-func HandleSignals(exit func(int)) (stop func()) {
-	ch := make(chan os.Signal, 1)
-	done := make(chan struct{})
+// program; stop removes the handler. The handler listens only from the
+// first tracked file on: until then the signals keep their default action.
+func HandleSignals(exitFunc func(int)) (stop func()) {
+	mu.Lock()
+	exit = exitFunc
+	if len(live) > 0 {
+		listenLocked()
+	}
+	mu.Unlock()
+	return func() {
+		mu.Lock()
+		defer mu.Unlock()
+		exit = nil
+		if sigs != nil {
+			signal.Stop(sigs)
+			close(done)
+			sigs, done = nil, nil
+		}
+	}
+}
+
+// listenLocked starts listening for the signals; mu is held.
+func listenLocked() {
+	ch, stopped, exitFunc := make(chan os.Signal, 1), make(chan struct{}), exit
+	sigs, done = ch, stopped
 	signal.Notify(ch, os.Interrupt, syscall.SIGTERM)
 	go func() {
 		select {
@@ -78,13 +109,9 @@ func HandleSignals(exit func(int)) (stop func()) {
 			// progress cannot rename its file into place afterwards.
 			mu.Lock()
 			removeLocked()
-			exit(ExitCode(sig))
+			exitFunc(ExitCode(sig))
 			mu.Unlock()
-		case <-done:
+		case <-stopped:
 		}
 	}()
-	return func() {
-		signal.Stop(ch)
-		close(done)
-	}
 }

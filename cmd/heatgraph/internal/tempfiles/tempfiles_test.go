@@ -50,3 +50,22 @@ func TestHandleSignals(t *testing.T) {
 		assert.NoFileExists(t, name)
 	}
 }
+
+// A run that writes no file sets up no signal handling: listening costs a
+// thread, which matters under tight memory limits.
+func TestListensOnlyWhileWriting(t *testing.T) {
+	RemoveAll()
+	stop := HandleSignals(func(int) {})
+	mu.Lock()
+	assert.Nil(t, sigs)
+	mu.Unlock()
+	untrack := Track(filepath.Join(t.TempDir(), ".x.tmp"))
+	mu.Lock()
+	assert.NotNil(t, sigs)
+	mu.Unlock()
+	untrack()
+	stop()
+	mu.Lock()
+	assert.Nil(t, sigs)
+	mu.Unlock()
+}
