@@ -134,7 +134,14 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 		if e.air {
 			colour = airColour
 		}
-		d.check(g.AddEdge(q(e.fromName), q(e.toName), true, edgeAttrs(e.heat, qMax, e.tooltip(), colour)))
+		attrs := edgeAttrs(e.heat, qMax, e.tooltip(), colour)
+		if e.fromName != e.from || e.toName != e.to {
+			// A copy of a fixed node hangs off its neighbour: leave the
+			// straightening to the paths between the nodes that matter,
+			// or a long chain becomes a staircase.
+			attrs["weight"] = "0"
+		}
+		d.check(g.AddEdge(q(e.fromName), q(e.toName), true, attrs))
 	}
 	d.legend(colouring, tMin, tMax, len(copies) > 0)
 	if d.err != nil {

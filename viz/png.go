@@ -24,6 +24,19 @@ import (
 // 2 gives crisp text on ordinary and high-density screens alike.
 const pngScale = 2.0
 
+// maxPNGPixels bounds the size of a PNG (4 bytes a pixel while painting):
+// a larger diagram is drawn at a smaller scale rather than exhausting
+// memory. SVG has no such limit.
+const maxPNGPixels = 64e6
+
+// pngScaleFor returns the pixels per point for a layout of w × h points.
+func pngScaleFor(w, h float64) float64 {
+	if px := w * h * pngScale * pngScale; px > maxPNGPixels {
+		return pngScale * math.Sqrt(maxPNGPixels/px)
+	}
+	return pngScale
+}
+
 // renderPNG lays out DOT source and paints it as a PNG.
 //
 // The layout comes from Graphviz's xdot output: every node, edge, cluster
@@ -46,13 +59,14 @@ func renderPNG(ctx context.Context, dot string) ([]byte, error) {
 		return nil, fmt.Errorf("reading the layout's bounding box %q: %w", laid.attrs["bb"], err)
 	}
 	const margin = 8.0 // points
-	width := int(math.Ceil((bb[2] - bb[0] + 2*margin) * pngScale))
-	height := int(math.Ceil((bb[3] - bb[1] + 2*margin) * pngScale))
+	w, h := bb[2]-bb[0]+2*margin, bb[3]-bb[1]+2*margin
+	scale := pngScaleFor(w, h)
 	p := &painter{
-		dc: gg.NewContext(width, height),
+		dc:    gg.NewContext(int(math.Ceil(w*scale)), int(math.Ceil(h*scale))),
+		scale: scale,
 		// xdot has y up from the bottom-left corner; the image has y down.
-		x: func(x float64) float64 { return (x - bb[0] + margin) * pngScale },
-		y: func(y float64) float64 { return (bb[3] - y + margin) * pngScale },
+		x: func(x float64) float64 { return (x - bb[0] + margin) * scale },
+		y: func(y float64) float64 { return (bb[3] - y + margin) * scale },
 	}
 	p.dc.SetRGB(1, 1, 1)
 	p.dc.Clear()
@@ -159,6 +173,7 @@ func (g *xdotGraph) clusterOps() []string {
 // 1.7: E e P p L B b T t C c F S) on a gg context.
 type painter struct {
 	dc       *gg.Context
+	scale    float64 // pixels per point
 	x, y     func(float64) float64
 	pen      color.Color
 	fill     color.Color
@@ -185,7 +200,7 @@ func (p *painter) paint(s string) error {
 		switch op {
 		case 'E', 'e':
 			cx, cy, rx, ry := r.num(), r.num(), r.num(), r.num()
-			p.dc.DrawEllipse(p.x(cx), p.y(cy), rx*pngScale, ry*pngScale)
+			p.dc.DrawEllipse(p.x(cx), p.y(cy), rx*p.scale, ry*p.scale)
 			p.finish(op == 'E')
 		case 'P', 'p', 'L', 'B', 'b':
 			pts := r.points()
@@ -249,9 +264,9 @@ func (p *painter) finish(filled bool) {
 		p.dc.FillPreserve()
 	}
 	p.dc.SetColor(p.pen)
-	p.dc.SetLineWidth(p.lineW * pngScale)
+	p.dc.SetLineWidth(p.lineW * p.scale)
 	if p.dashed {
-		p.dc.SetDash(5*pngScale, 3*pngScale)
+		p.dc.SetDash(5*p.scale, 3*p.scale)
 	} else {
 		p.dc.SetDash()
 	}
@@ -282,7 +297,7 @@ func (p *painter) face() font.Face {
 	if err != nil {
 		panic(fmt.Sprintf("viz: built-in font: %v", err)) // compiled-in data
 	}
-	f := truetype.NewFace(ft, &truetype.Options{Size: p.fontSize * pngScale * 0.96, DPI: 72})
+	f := truetype.NewFace(ft, &truetype.Options{Size: p.fontSize * p.scale * 0.96, DPI: 72})
 	if p.faces == nil {
 		p.faces = map[string]font.Face{}
 	}

@@ -201,6 +201,7 @@ func TestDOTMergesParallelLinksAndSplitsFixedNodes(t *testing.T) {
 	}
 	assert.Equal(t, 5, strings.Count(dot, `label="ambient\n25.0 °C"`), "ambient drawn once per link")
 	assert.Equal(t, 5, strings.Count(dot, "->\"ambient#"))
+	assert.Equal(t, 5, strings.Count(dot, "weight=0"), "copies of a fixed node do not bend the chain")
 	// The heat enters at n0 and flows down the chain.
 	for i := range 4 {
 		assert.Contains(t, dot, fmt.Sprintf(`"n%d"->"n%d"`, i, i+1))
@@ -300,4 +301,11 @@ func TestTextNotFinite(t *testing.T) {
 	assert.Contains(t, buf.String(), "not finite  chip → ambient")
 	assert.Contains(t, buf.String(), "link up: heat is negatively infinite")
 	assert.Contains(t, buf.String(), "energy balance: imbalance is undefined (NaN)")
+}
+
+func TestPNGScale(t *testing.T) {
+	assert.Equal(t, 2.0, pngScaleFor(1000, 800))
+	s := pngScaleFor(30000, 6000)
+	assert.Less(t, s, 2.0)
+	assert.InDelta(t, maxPNGPixels, 30000*6000*s*s, 1)
 }
