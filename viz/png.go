@@ -146,16 +146,39 @@ func attrMap(l ast.AttrList) map[string]string {
 	return m
 }
 
-// unquote returns the text of a DOT string: without its quotes, with
-// escaped quotes restored and line continuations (backslash, newline)
-// removed.
+// unquote returns the text of a DOT string as Graphviz writes it: without
+// its quotes, with \" and \\ turned back into " and \, and line
+// continuations (backslash, newline) removed. Other backslashes stay.
 func unquote(s string) string {
 	if len(s) < 2 || s[0] != '"' || s[len(s)-1] != '"' {
 		return s
 	}
 	s = s[1 : len(s)-1]
-	s = strings.ReplaceAll(s, "\\\n", "")
-	return strings.ReplaceAll(s, `\"`, `"`)
+	if !strings.Contains(s, `\`) {
+		return s
+	}
+	var b strings.Builder
+	for i := 0; i < len(s); i++ {
+		if s[i] == '\\' && i+1 < len(s) {
+			switch s[i+1] {
+			case '"', '\\':
+				b.WriteByte(s[i+1])
+				i++
+				continue
+			case '\n':
+				i++
+				continue
+			case '\r':
+				i++
+				if i+1 < len(s) && s[i+1] == '\n' {
+					i++
+				}
+				continue
+			}
+		}
+		b.WriteByte(s[i])
+	}
+	return b.String()
 }
 
 // clusterOps returns the drawing operations of every subgraph, nested ones

@@ -309,3 +309,29 @@ func TestPNGScale(t *testing.T) {
 	assert.Less(t, s, 2.0)
 	assert.InDelta(t, maxPNGPixels, 30000*6000*s*s, 1)
 }
+
+// The xdot reader undoes DOT quoting: escaped quotes and line
+// continuations, which Graphviz writes in long drawing attributes.
+func TestReadXdot(t *testing.T) {
+	assert.Equal(t, `T 1 2 0 9 8 -say "hi"`, unquote(`"T 1 2 0 9 8 -say \"hi\""`))
+	assert.Equal(t, "c 7 -#000000 P 2 1 2 3 4", unquote("\"c 7 -#000000 \\\nP 2 1 2 3 4\""))
+	assert.Equal(t, "plain", unquote("plain"))
+	assert.Equal(t, `T 1 2 0 3 3 -a\b \n`, unquote(`"T 1 2 0 3 3 -a\\b \n"`), "a written backslash, an unknown escape")
+
+	g, err := readXdot([]byte(`digraph g {
+	graph [bb="0,0,10,20", _draw_="c 7 -#fffffe00 "];
+	subgraph cluster_a { graph [_draw_="c 7 -#9a9a9a "]; x [_draw_="e 1 2 3 4 "]; }
+	y [_ldraw_="T 1 2 0 9 8 -say \"hi\""];
+	x -> y [_draw_="B 4 0 0 1 1 2 2 3 3 "];
+}`))
+	require.NoError(t, err)
+	assert.Equal(t, "0,0,10,20", g.attrs["bb"])
+	require.Len(t, g.nodes, 2)
+	assert.Equal(t, `T 1 2 0 9 8 -say "hi"`, g.nodes[1]["_ldraw_"])
+	require.Len(t, g.edges, 1)
+	assert.Equal(t, []string{"c 7 -#9a9a9a ", ""}, g.clusterOps())
+
+	// A label with quotes and a backslash is painted without error.
+	_, err = Render(context.Background(), `digraph g { a [label="say \"hi\" \\ 5 W"]; a -> b [label="1 W"] }`, FormatPNG)
+	assert.NoError(t, err)
+}
