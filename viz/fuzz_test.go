@@ -4,7 +4,6 @@ import (
 	"bytes"
 	"encoding/csv"
 	"encoding/json"
-	"errors"
 	"io"
 	"io/fs"
 	"math"
@@ -106,30 +105,18 @@ func FuzzReports(f *testing.F) {
 			}
 		}
 
-		// Last, since the one known defect skips the rest.
 		checkJSON(t, viz.NewReport(m, sol, run), sol)
 	})
 }
 
-// knownJSONDefect names the open defect a fuzz input may still meet; see
-// checkJSON.
-const knownJSONDefect = "JSON rejects non-finite detail values"
-
-// checkJSON writes r and checks that it is valid JSON with finite numbers.
-//
-// One failure is known and being fixed: a link detail that is ±Inf (or NaN),
-// such as a Rayleigh number of a link with no temperature difference, makes
-// WriteJSON fail. Only that case is skipped, and only when it is the sole
-// non-finite number in the document; the input that found it is kept in
-// testdata/fuzz/FuzzReports.
+// checkJSON writes r and checks that it is valid JSON with finite numbers
+// (a non-finite value is never written as a number; the input that once
+// made WriteJSON fail on an infinite friction factor is kept in
+// testdata/fuzz/FuzzReports).
 func checkJSON(t *testing.T, r *viz.Report, sol *network.Solution) {
 	t.Helper()
 	var buf bytes.Buffer
 	if err := viz.WriteJSON(&buf, r); err != nil {
-		var uv *json.UnsupportedValueError
-		if errors.As(err, &uv) && sol != nil && onlyDetailsNonFinite(r) {
-			t.Skipf("known defect %q: %v", knownJSONDefect, err)
-		}
 		t.Fatalf("WriteJSON: %v", err)
 	}
 	if !json.Valid(buf.Bytes()) {
@@ -151,46 +138,6 @@ func checkJSON(t *testing.T, r *viz.Report, sol *network.Solution) {
 			}
 		}
 	}
-}
-
-// onlyDetailsNonFinite reports whether r has a non-finite link detail and
-// every other number in it is finite.
-func onlyDetailsNonFinite(r *viz.Report) bool {
-	finite := func(v float64) bool { return !math.IsNaN(v) && !math.IsInf(v, 0) }
-	found := false
-	for _, l := range r.Links {
-		if !finite(l.HeatW) {
-			return false
-		}
-		for _, p := range l.Paths {
-			if !finite(p.HeatW) {
-				return false
-			}
-		}
-		for _, d := range l.Details {
-			if d.Value != nil && !finite(*d.Value) {
-				found = true
-			}
-		}
-	}
-	for _, n := range r.Nodes {
-		if !finite(n.TemperatureC) || !finite(n.PowerW) ||
-			(n.LimitC != nil && !finite(*n.LimitC)) || (n.MarginK != nil && !finite(*n.MarginK)) {
-			return false
-		}
-	}
-	if b := r.Balance; b != nil {
-		if !finite(b.InW) || !finite(b.ImbalanceW) {
-			return false
-		}
-		for _, o := range b.Out {
-			if !finite(o.HeatW) {
-				return false
-			}
-		}
-	}
-	s := r.Solver
-	return found && finite(s.ResidualW) && finite(s.Scaled) && finite(r.Ambient.TemperatureC) && finite(r.Ambient.PressurePa)
 }
 
 // seedModels lists every example and every model under testdata, invalid
