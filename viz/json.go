@@ -75,8 +75,8 @@ type LinkReport struct {
 // PathReport is one heat path of a link: HeatW watts from From to To;
 // Carried when moving air carries it.
 type PathReport struct {
-	From    string  `json:"from"`
-	To      string  `json:"to"`
+	From    string `json:"from"`
+	To      string `json:"to"`
 	HeatW   Number `json:"heat_W"`
 	Carried bool   `json:"carried_by_air"`
 }
