@@ -54,6 +54,10 @@ func (p *Steady) KindOf(i int) int { return int(p.net.Vars[p.net.unknown[i]].Kin
 // Name names unknown i for messages.
 func (p *Steady) Name(i int) string { return p.net.Vars[p.net.unknown[i]].Name() }
 
+// EquationName names the equation of unknown i for messages, e.g.
+// `heat balance of "cpu"`.
+func (p *Steady) EquationName(i int) string { return p.net.Vars[p.net.unknown[i]].Equation() }
+
 // Variable returns the network variable of unknown i.
 func (p *Steady) Variable(i int) int { return p.net.unknown[i] }
 

@@ -17,6 +17,7 @@ type Result struct {
 	Residual   float64    // largest |F(X)|, in mixed units when kinds differ
 	Scaled     float64    // largest |F_i(X)| relative to its equation's magnitude
 	Worst      int        // the equation with the largest scaled residual, −1 if none
+	WorstValue float64    // that equation's residual, in its unit
 	Step       float64    // largest |Δx|/Scale of the last Newton step computed
 	// Kinds reports the convergence of each kind of unknown at X.
 	Kinds []KindResult
@@ -541,6 +542,9 @@ func (w *work) pseudoStep(x []float64) error {
 func (w *work) finish(r Result) Result {
 	r.Residual = maxAbs(w.f)
 	r.Scaled, r.Worst = w.worstScaled()
+	if r.Worst >= 0 {
+		r.WorstValue = w.f[r.Worst]
+	}
 	r.Kinds = make([]KindResult, len(w.kinds))
 	for k := range w.kinds {
 		r.Kinds[k] = KindResult{Kind: w.kinds[k], StepAt: -1, ResidualAt: -1, ScaledAt: -1, Converged: true}

@@ -41,8 +41,26 @@ type SolverReport struct {
 	Converged  bool   `json:"converged"`
 	Reason     string `json:"reason"`
 	Iterations int    `json:"iterations"`
-	ResidualW  Number `json:"max_residual_W"`
-	Scaled     Number `json:"scaled_residual"`
+	// The equation with the largest residual relative to its own
+	// magnitude, its residual in its unit, and the ratio.
+	Worst    string           `json:"worst_equation,omitempty"`
+	Residual Number           `json:"worst_residual"`
+	Unit     string           `json:"worst_residual_unit,omitempty"`
+	Scaled   Number           `json:"scaled_residual"`
+	Unknowns []UnknownsReport `json:"unknowns"`
+}
+
+// UnknownsReport is the convergence of one kind of unknown.
+type UnknownsReport struct {
+	Kind         string `json:"kind"`
+	Unit         string `json:"unit"`
+	Equation     string `json:"equation"`
+	EquationUnit string `json:"equation_unit"`
+	Count        int    `json:"count"`
+	Step         Number `json:"last_step"`
+	Residual     Number `json:"max_residual"`
+	Scaled       Number `json:"max_scaled_residual"`
+	Converged    bool   `json:"converged"`
 }
 
 // NodeReport is one node's result.
@@ -113,9 +131,8 @@ func NewReport(m *network.Model, sol *network.Solution, run Run) *Report {
 			"temperature": "degC (and K where the key says _K)", "temperature_difference": "K",
 			"heat": "W", "pressure": "Pa", "length": "m", "details": "SI, as each detail's unit says",
 		},
-		Ambient: AmbientReport{TemperatureC: Number(celsius(m.Ambient.Temperature)), PressurePa: Number(m.Ambient.Pressure)},
-		Solver: SolverReport{Converged: run.Converged, Reason: run.Reason, Iterations: run.Iterations,
-			ResidualW: Number(run.Residual), Scaled: Number(run.Scaled)},
+		Ambient:  AmbientReport{TemperatureC: Number(celsius(m.Ambient.Temperature)), PressurePa: Number(m.Ambient.Pressure)},
+		Solver:   solverReport(run),
 		Warnings: runWarnings(run),
 		Caution:  Caution,
 	}
@@ -172,4 +189,15 @@ func WriteJSON(w io.Writer, r *Report) error {
 	enc := json.NewEncoder(w)
 	enc.SetIndent("", "  ")
 	return enc.Encode(r)
+}
+
+func solverReport(run Run) SolverReport {
+	r := SolverReport{Converged: run.Converged, Reason: run.Reason, Iterations: run.Iterations,
+		Worst: run.Worst, Residual: Number(run.Residual), Unit: run.WorstUnit, Scaled: Number(run.Scaled),
+		Unknowns: []UnknownsReport{}}
+	for _, k := range run.Kinds {
+		r.Unknowns = append(r.Unknowns, UnknownsReport{Kind: k.Name, Unit: k.Unit, Equation: k.Equation, EquationUnit: k.EquationUnit,
+			Count: k.Unknowns, Step: Number(k.Step), Residual: Number(k.Residual), Scaled: Number(k.Scaled), Converged: k.Converged})
+	}
+	return r
 }

@@ -35,7 +35,18 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 	}
 	tw.printf("%s\n", title)
 	tw.printf("model %s; ambient %.2f °C, %s\n", m.File, celsius(m.Ambient.Temperature), pressureText(m.Ambient))
-	tw.printf("solved in %d Newton iterations; largest residual %.2g W\n\n", run.Iterations, run.Residual)
+	tw.printf("solved in %d Newton iterations", run.Iterations)
+	if run.Worst != "" {
+		tw.printf("; worst remaining imbalance %.2g %s (%.1g of the flows) in the %s", run.Residual, run.WorstUnit, run.Scaled, run.Worst)
+	}
+	tw.printf("\n")
+	if len(run.Kinds) > 1 {
+		for _, k := range run.Kinds {
+			tw.printf("  %s: %d unknowns, last step %.2g %s, largest %s residual %.2g %s\n",
+				k.Name, k.Unknowns, k.Step, k.Unit, k.Equation, k.Residual, k.EquationUnit)
+		}
+	}
+	tw.printf("\n")
 
 	nodes := sortNodes(sol.Nodes, order)
 	idw := len("node")

@@ -8,6 +8,7 @@ import (
 	"errors"
 	"fmt"
 	"io/fs"
+	"math"
 	"os"
 	"path/filepath"
 
@@ -48,27 +49,56 @@ func Solve(path string, settings solve.Settings) (*Outcome, error) {
 	}
 	p := net.Steady()
 	res := solve.Newton(p, p.InitialGuess(), settings)
-	out := &Outcome{Net: net, Result: res, Run: viz.Run{
-		Converged:  res.Reason.Converged(),
-		Reason:     res.Reason.String(),
-		Iterations: res.Iterations,
-		Residual:   res.Residual,
-		Scaled:     res.Scaled,
-	}}
+	out := &Outcome{Net: net, Result: res, Run: RunOf(p, res)}
 	if out.Run.Converged {
 		out.Solution = net.Solution(res.X)
 	}
 	return out, nil
 }
 
+// RunOf describes a solve of p for the reports: the worst equation and
+// the convergence of each kind of unknown the model has.
+func RunOf(p *network.Steady, res solve.Result) viz.Run {
+	r := viz.Run{
+		Converged:  res.Reason.Converged(),
+		Reason:     res.Reason.String(),
+		Iterations: res.Iterations,
+		Residual:   res.Residual,
+		Scaled:     res.Scaled,
+	}
+	if res.Worst >= 0 && res.Worst < p.Size() {
+		r.Worst = p.EquationName(res.Worst)
+		r.WorstUnit = p.Kinds()[p.KindOf(res.Worst)].EquationUnit
+		r.Residual = math.Abs(res.WorstValue)
+	}
+	for _, k := range res.Kinds {
+		if k.Unknowns == 0 {
+			continue
+		}
+		r.Kinds = append(r.Kinds, viz.KindRun{Name: k.Kind.Name, Unit: k.Kind.Unit, Equation: k.Kind.Equation,
+			EquationUnit: k.Kind.EquationUnit, Unknowns: k.Unknowns, Step: k.Step, Residual: k.Residual,
+			Scaled: k.Scaled, Converged: k.Converged})
+	}
+	return r
+}
+
 // NotConverged returns the error for a solve that found no solution.
 func (o *Outcome) NotConverged() error {
-	msg := fmt.Sprintf("%s: no solution: the solver stopped after %d iterations (%s; largest residual %.3g W, %.2g of the heat flow)",
-		o.Net.Model.File, o.Result.Iterations, o.Result.Reason, o.Result.Residual, o.Result.Scaled)
+	msg := fmt.Sprintf("%s: no solution: the solver stopped after %d iterations (%s", o.Net.Model.File, o.Result.Iterations, o.Result.Reason)
+	if o.Run.Worst != "" {
+		msg += fmt.Sprintf("; worst imbalance %.3g %s, %.2g of the flows there, in the %s", o.Run.Residual, o.Run.WorstUnit, o.Run.Scaled, o.Run.Worst)
+	}
+	msg += ")"
 	if o.Result.Err != nil {
 		msg += ": " + o.Result.Err.Error()
 	}
-	msg += "\nhint: check for links far stronger or weaker than the rest, and for temperatures or powers with wrong units"
+	switch o.Result.Reason {
+	case solve.LeftDomain:
+	case solve.SingularJacobian:
+		msg += "\nhint: give every node named above a path for its heat to a fixed temperature or ambient"
+	default:
+		msg += "\nhint: check for links far stronger or weaker than the rest, and for temperatures or powers with wrong units"
+	}
 	return &exit.Error{Code: exit.NotConverged, Err: errors.New(msg)}
 }
 
