@@ -51,15 +51,6 @@ func (d Duct) LaminarFRe() float64 {
 	return ShahLondonFRe(d.Aspect())
 }
 
-// LaminarNuT returns the fully developed laminar Nusselt number of d for a
-// uniform wall temperature (Shah & London 1978).
-func (d Duct) LaminarNuT() float64 {
-	if d.Shape == Circular {
-		return CircularNuT
-	}
-	return ShahLondonNuT(d.Aspect())
-}
-
 // LaminarNuH returns the fully developed laminar Nusselt number of d for a
 // uniform axial heat flux (H1 for rectangles; Shah & London 1978).
 func (d Duct) LaminarNuH() float64 {
