@@ -153,6 +153,8 @@ func TestChannelJacobianChoices(t *testing.T) {
 		{"fully developed, laminar", &Channel{Geometry: fins, Options: duct.Options{Developed: true}}, 2e-3},
 		{"fully developed, transitional", &Channel{Geometry: fins, Options: duct.Options{Developed: true}}, 2e-2},
 		{"turbulent from 2300", &Channel{Geometry: fins, Options: duct.Options{Transition: duct.TransitionTurbulent, Turbulent: duct.DittusBoelter}}, 2e-2},
+		{"interpolation to 4000, below", &Channel{Geometry: fins, Options: duct.Options{Transition: duct.TransitionInterpolate4000}}, 1.2e-2},
+		{"interpolation to 4000, above", &Channel{Geometry: fins, Options: duct.Options{Transition: duct.TransitionInterpolate4000}}, 3e-2},
 		{"thermal entry", &Channel{Geometry: fins, Options: duct.Options{Laminar: duct.ThermalEntry}}, 2e-3},
 		{"far downstream part", &Channel{Geometry: fins, Upstream: 1, Downstream: 0.2}, 1e-3},
 		{"two long walls", &Channel{Geometry: slot}, 5e-4},

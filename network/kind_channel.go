@@ -17,7 +17,7 @@ func init() {
 			"Re = ṁD_h/(A·μ) with air properties at the mean bulk temperature: laminar fully " +
 			"developed (Shah & London) or developing (Muzychka & Yovanovich for rectangles, " +
 			"Stephan for tubes; Hausen with development: thermal; Shah & London with development: full), " +
-			"turbulent Gnielinski or Dittus–Boelter, and between Re 2300 and 10⁴ Gnielinski's 2013 " +
+			"turbulent Gnielinski or Dittus–Boelter, and between Re 2300 and 10⁴ Gnielinski's " +
 			"interpolation or the turbulent correlation (transition key); friction from Churchill's " +
 			"all-regime equation; fins through their efficiency; only the heated walls take heat. The " +
 			"report gives every number behind h and the pressure drop.",
@@ -26,7 +26,7 @@ func init() {
 			"Shah & London, Laminar Flow Forced Convection in Ducts, 1978",
 			"Muzychka & Yovanovich, J. Heat Transfer 126, 2004 (combined entry)",
 			"Gnielinski, Int. Chem. Eng. 16, 1976; Petukhov 1970 (friction)",
-			"Gnielinski, Int. J. Heat Mass Transfer 63, 2013 (transition range)",
+			"Gnielinski, VDI Heat Atlas 2010, G1; Gnielinski, Int. J. Heat Mass Transfer 63, 2013 (transition range)",
 			"Dittus & Boelter, 1930",
 			"Kays & London, Compact Heat Exchangers (entry and exit losses)",
 			"Churchill, Chem. Eng. 84, 1977 (friction factor)",
@@ -51,7 +51,7 @@ func init() {
 			{name: "diameter", dim: units.Length, need: "with shape: circular"},
 			{name: "count", what: "count", def: "1", help: "number of parallel plain channels"},
 			{name: "turbulent", what: "word", def: "gnielinski", help: "gnielinski or dittus-boelter"},
-			{name: "transition", what: "word", def: "interpolate", help: "for 2300 < Re < 10⁴: interpolate (Gnielinski 2013, laminar at 2300 to turbulent at 10⁴) or turbulent (the turbulent correlation from Re 2300, a hand-calculation practice)"},
+			{name: "transition", what: "word", def: "interpolate", help: "for 2300 < Re < 10⁴: interpolate (Gnielinski, VDI Heat Atlas G1: laminar at 2300 to turbulent at 10⁴), interpolate-4000 (Gnielinski 2013: to turbulent at 4000) or turbulent (the turbulent correlation from Re 2300, a hand-calculation practice)"},
 			{name: "development", what: "word", def: "combined", help: "combined (velocity and temperature develop from the entry), thermal (velocity developed, temperature developing) or full (fully developed throughout)"},
 			{name: "laminar_entry", what: "word", help: "older name for development: combined or thermal"},
 			{name: "heated_walls", what: "word", def: "all", help: "with shape: rectangular: all, two-long (the two long walls, the short ones adiabatic) or one-long"},
@@ -97,7 +97,7 @@ var (
 	turbulentModels = []string{"gnielinski", "dittus-boelter"}
 	laminarEntries  = []string{"combined", "thermal"}
 	developments    = []string{"combined", "thermal", "full"}
-	transitions     = []string{"interpolate", "turbulent"}
+	transitions     = []string{"interpolate", "interpolate-4000", "turbulent"}
 	heatedWalls     = map[string]duct.Walls{"all": duct.AllWalls, "two-long": duct.TwoLongWalls, "one-long": duct.OneLongWall}
 )
 
@@ -195,8 +195,11 @@ func channelOptions(o *object, opts *duct.Options) bool {
 	if turb == "dittus-boelter" {
 		opts.Turbulent = duct.DittusBoelter
 	}
-	if trans == "turbulent" {
+	switch trans {
+	case "turbulent":
 		opts.Transition = duct.TransitionTurbulent
+	case "interpolate-4000":
+		opts.Transition = duct.TransitionInterpolate4000
 	}
 	switch dev {
 	case "thermal":

@@ -30,11 +30,12 @@
 //     velocity (Hausen 1943), never below the fully developed value of
 //     Shah & London (1978) for the heated walls; or that fully developed
 //     value throughout (Options.Developed).
-//   - transitional, 2300 < Re < 10⁴: the Gnielinski (2013) interpolation
-//     between the laminar value at Re = 2300 (actual length) and the
-//     turbulent value at Re = 10⁴, or the turbulent correlation applied
-//     from Re = 2300 (Options.Transition); always with a warning that Nu is
-//     uncertain there.
+//   - transitional, 2300 < Re < 10⁴: Gnielinski's interpolation between
+//     the laminar value at Re = 2300 (actual length) and the turbulent
+//     value at Re = 10⁴ (VDI Heat Atlas G1) or at 4000 (Gnielinski 2013),
+//     or the turbulent correlation applied from Re = 2300
+//     (Options.Transition); always with a warning that Nu is uncertain
+//     there.
 //   - turbulent, Re ≥ 10⁴: Gnielinski (1976) with the Petukhov (1970)
 //     friction factor, or Dittus & Boelter (1930).
 //

@@ -8,9 +8,9 @@ import (
 	"github.com/heatgraph/heatgraph/elements/validity"
 )
 
-// Regime boundaries of Flow, after Gnielinski (2013), On heat transfer in
-// tubes, Int. J. Heat Mass Transfer 63:134–140: laminar up to ReLaminar,
-// turbulent from ReTurbulent, a linear blend between.
+// Regime boundaries of Flow, after Gnielinski, VDI Heat Atlas (2010),
+// chapter G1, Heat transfer in pipe flow (from memory): laminar up to
+// ReLaminar, turbulent from ReTurbulent, transitional between.
 const (
 	ReLaminar   = 2300.0
 	ReTurbulent = 1e4
@@ -57,9 +57,9 @@ const (
 type Transition int
 
 const (
-	// TransitionInterpolate is the interpolation of Gnielinski (2013), On
-	// heat transfer in tubes, Int. J. Heat Mass Transfer 63:134–140 (also
-	// in the VDI Heat Atlas, chapter G1):
+	// TransitionInterpolate is Gnielinski's linear interpolation as given in
+	// the VDI Heat Atlas (2010), chapter G1, Heat transfer in pipe flow (from
+	// memory):
 	//
 	//	Nu = (1 − γ)·Nu_lam(2300) + γ·Nu_turb(10⁴),  γ = (Re − 2300)/(10⁴ − 2300),
 	//
@@ -72,6 +72,13 @@ const (
 	// published method, and below the correlations' own Reynolds ranges. Nu
 	// jumps at Re = 2300.
 	TransitionTurbulent
+	// TransitionInterpolate4000 is the same interpolation between Re = 2300
+	// and Re = 4000, as in Gnielinski (2013), On heat transfer in tubes,
+	// Int. J. Heat Mass Transfer 63:134–140 (its abstract: "a linear
+	// interpolation between the Nusselt numbers at Re = 2300 and Re = 4000";
+	// a corrigendum followed in vol. 81, 2015, not seen), with the
+	// turbulent correlation itself from 4000 to 10⁴.
+	TransitionInterpolate4000
 )
 
 // Options selects the correlations of Flow. The zero value selects
@@ -117,23 +124,24 @@ const (
 	corrGnielinski         = "Gnielinski (1976)/Petukhov"
 	corrDittusBoelter      = "Dittus-Boelter (1930)"
 	corrPartialWalls       = ", fully developed term of the heated walls (engineering substitution)"
-	corrFromLaminar        = ", applied from Re 2300 (hand-calculation practice, outside its published range)"
+	corrFromRe             = ", applied from Re %g"
 	corrFriction           = "Churchill (1977), laminar term: Muzychka-Yovanovich (2009) apparent friction of the duct"
 	corrFrictionDeveloped  = "Churchill (1977), laminar term: Shah-London (1978) fully developed f·Re of the duct"
 )
 
 // Names of the transition treatments reported in Result.Transition.
 const (
-	TransitionNameInterpolate = "Gnielinski (2013) interpolation between Re 2300 and 10^4"
-	TransitionNameTurbulent   = "turbulent correlation applied from Re 2300 (hand-calculation practice)"
+	TransitionNameInterpolate     = "Gnielinski interpolation between Re 2300 and 10^4 (VDI Heat Atlas G1)"
+	TransitionNameInterpolate4000 = "Gnielinski (2013) interpolation between Re 2300 and 4000"
+	TransitionNameTurbulent       = "turbulent correlation applied from Re 2300 (hand-calculation practice)"
 )
 
 // TransitionWarning is the warning Flow gives in the transition range. The
 // size of the uncertainty is from memory: measured Nusselt numbers between
 // Re = 2300 and 10⁴ scatter widely because the onset of turbulence depends
 // on the inlet shape and on disturbances (Gnielinski 2013 discusses this).
-const TransitionWarning = "transitional flow (2300 < Re < 10^4): Nu is uncertain by ±20 % or more, " +
-	"since the onset of turbulence depends on the inlet and on disturbances (from memory)"
+const TransitionWarning = "transitional flow (2300 < Re < 10^4): heat transfer and friction are uncertain, " +
+	"Nu by ±20 % or more, since the onset of turbulence depends on the inlet and on disturbances (from memory)"
 
 // Flow returns the mean Nusselt number and apparent Darcy friction factor of
 // air flowing through d at Reynolds number re and Prandtl number pr, both on
@@ -158,9 +166,9 @@ const TransitionWarning = "transitional flow (2300 < Re < 10^4): Nu is uncertain
 // authors use the heated diameter 4A/P_heated instead). Entrance lengths
 // about 10·Dh (rule of thumb), also used in the transitional range.
 //
-// Transitional: o.Transition selects TransitionInterpolate (Gnielinski 2013)
-// or TransitionTurbulent; either way Result.Warnings carries
-// TransitionWarning.
+// Transitional: o.Transition selects TransitionInterpolate (VDI Heat Atlas
+// G1), TransitionInterpolate4000 (Gnielinski 2013) or TransitionTurbulent;
+// in every case Result.Warnings carries TransitionWarning.
 //
 // F, in every regime, is ChurchillDuct with the laminar friction of the duct
 // as its laminar term: the Muzychka & Yovanovich (2009) apparent friction
@@ -202,17 +210,26 @@ func Flow(d Duct, re, pr dual.Num, o Options) Result {
 	case re.V < ReTurbulent:
 		r.Regime = RegimeTransitional
 		r.EntryHydro, r.EntryThermal = 10*dh, 10*dh
-		if o.Transition == TransitionTurbulent {
-			r.Nu, r.Correlation = turbulentNu(d, re, pr, o)
-			r.Correlation += corrFromLaminar
-			r.NuDeveloped, _ = turbulentNu(d, re, pr, dev)
+		high := ReTurbulent
+		switch o.Transition {
+		case TransitionTurbulent:
+			high = ReLaminar
 			r.Transition = TransitionNameTurbulent
+		case TransitionInterpolate4000:
+			high = 4000
+			r.Transition = TransitionNameInterpolate4000
+		default:
+			r.Transition = TransitionNameInterpolate
+		}
+		if re.V >= high {
+			r.Nu, r.Correlation = turbulentNu(d, re, pr, o)
+			r.Correlation += fmt.Sprintf(corrFromRe, high)
+			r.NuDeveloped, _ = turbulentNu(d, re, pr, dev)
 			r.Warnings = turbulentWarnings(d, re.V, pr.V, o)
 		} else {
-			r.Nu, r.Correlation = transitionNu(d, re, pr, o)
-			r.NuDeveloped, _ = transitionNu(d, re, pr, dev)
-			r.Transition = TransitionNameInterpolate
-			r.Warnings = append(laminarWarnings(d, pr.V, o), turbulentWarnings(d, ReTurbulent, pr.V, o)...)
+			r.Nu, r.Correlation = transitionNu(d, re, pr, o, high)
+			r.NuDeveloped, _ = transitionNu(d, re, pr, dev, high)
+			r.Warnings = append(laminarWarnings(d, pr.V, o), turbulentWarnings(d, high, pr.V, o)...)
 		}
 		r.Warnings = append(r.Warnings, TransitionWarning)
 	default:
@@ -230,14 +247,15 @@ func Flow(d Duct, re, pr dual.Num, o Options) Result {
 	return r
 }
 
-// transitionNu returns the Gnielinski (2013) interpolation and its name: with
-// γ = (Re − 2300)/(10⁴ − 2300), Nu = (1 − γ)·Nu_lam(2300) + γ·Nu_turb(10⁴),
-// the laminar value at the actual length.
-func transitionNu(d Duct, re, pr dual.Num, o Options) (dual.Num, string) {
-	g := re.AddC(-ReLaminar).Scale(1 / (ReTurbulent - ReLaminar))
+// transitionNu returns Gnielinski's interpolation up to Re = high and its
+// name: with γ = (Re − 2300)/(high − 2300),
+// Nu = (1 − γ)·Nu_lam(2300) + γ·Nu_turb(high), the laminar value at the
+// actual length.
+func transitionNu(d Duct, re, pr dual.Num, o Options, high float64) (dual.Num, string) {
+	g := re.AddC(-ReLaminar).Scale(1 / (high - ReLaminar))
 	lam, lamName := laminarNu(d, dual.C(ReLaminar), pr, o)
-	turb, turbName := turbulentNu(d, dual.C(ReTurbulent), pr, o)
-	return blend(g, lam, turb), "Gnielinski (2013) interpolation: " + lamName + " at Re 2300, " + turbName + " at Re 10^4"
+	turb, turbName := turbulentNu(d, dual.C(high), pr, o)
+	return blend(g, lam, turb), fmt.Sprintf("Gnielinski interpolation: %s at Re 2300, %s at Re %g", lamName, turbName, high)
 }
 
 // blend returns (1 − g)·a + g·b.

@@ -61,12 +61,29 @@ func TestTransitionTreatments(t *testing.T) {
 	}
 	ext := Flow(tube, re, pr, Options{Turbulent: DittusBoelter, Transition: TransitionTurbulent})
 	if !near(ext.Nu.V, 18.8921, 1e-4) || ext.Transition != TransitionNameTurbulent ||
-		!strings.Contains(ext.Correlation, "hand-calculation practice") {
+		!strings.Contains(ext.Transition, "hand-calculation practice") || !strings.Contains(ext.Correlation, "from Re 2300") {
 		t.Errorf("turbulent from 2300: Nu %.4f (%s, %s), want 18.8921", ext.Nu.V, ext.Correlation, ext.Transition)
 	}
 	for _, r := range []Result{interp, ext} {
 		if !strings.Contains(strings.Join(r.Warnings, "; "), TransitionWarning) {
 			t.Errorf("%s: no transition warning in %q", r.Transition, r.Warnings)
+		}
+	}
+	// Gnielinski (2013): the interpolation ends at Re 4000. Hand, Pr 0.71:
+	// Gnielinski (1976)/Petukhov Nu(4000) = 13.5647, γ = 700/1700 at Re
+	// 3000: 6.11645 + γ·(13.5647 − 6.11645) = 9.18339; from 4000 on the
+	// turbulent correlation itself, Nu(6000) = 19.6488.
+	o13 := Options{Transition: TransitionInterpolate4000}
+	if r := Flow(tube, dual.C(3000), pr, o13); !near(r.Nu.V, 9.18339, 1e-5) || r.Transition != TransitionNameInterpolate4000 {
+		t.Errorf("Gnielinski 2013 at Re 3000: Nu %.5f (%s), want 9.18339", r.Nu.V, r.Transition)
+	}
+	if r := Flow(tube, dual.C(6000), pr, o13); !near(r.Nu.V, 19.6488, 1e-5) || !strings.Contains(strings.Join(r.Warnings, "; "), TransitionWarning) {
+		t.Errorf("Gnielinski 2013 at Re 6000: Nu %.5f, warnings %q; want 19.6488 with the transition warning", r.Nu.V, r.Warnings)
+	}
+	for _, edge := range []float64{ReLaminar, 4000} {
+		lo, hi := Flow(tube, dual.C(edge*(1-1e-12)), pr, o13).Nu.V, Flow(tube, dual.C(edge*(1+1e-12)), pr, o13).Nu.V
+		if !near(hi, lo, 1e-9) {
+			t.Errorf("Gnielinski 2013: Nu jumps at Re %g: %g | %g", edge, lo, hi)
 		}
 	}
 	// Gnielinski (1976) from 2300: its own formula at Re 5000.
