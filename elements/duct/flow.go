@@ -47,7 +47,8 @@ const (
 	// (2004) for rectangles. It suits air entering a channel from a plenum.
 	CombinedEntry Laminar = iota
 	// ThermalEntry assumes a developed velocity profile: Hausen (1943) for
-	// tubes, the engineering substitution HausenRectangular otherwise. It
+	// tubes, PlatesThermalEntry for plates, the engineering substitution
+	// HausenRectangular for rectangles. It
 	// suits a heated section behind an unheated starting length.
 	ThermalEntry
 )
@@ -120,6 +121,7 @@ const (
 	corrStephanPlates      = "Stephan (1959) combined entry, parallel plates"
 	corrHausen             = "Hausen (1943) thermal entry"
 	corrHausenRectangular  = "Hausen form with Shah-London Nu_T (engineering substitution)"
+	corrPlatesThermal      = "Leveque limit and Shah-London Nu_T, cube superposition (thermal entry, parallel plates)"
 	corrShahLondon         = "Shah-London (1978) fully developed"
 	corrGnielinski         = "Gnielinski (1976)/Petukhov"
 	corrDittusBoelter      = "Dittus-Boelter (1930)"
@@ -279,6 +281,8 @@ func laminarNu(d Duct, re, pr dual.Num, o Options) (dual.Num, string) {
 	switch {
 	case o.Laminar == ThermalEntry && d.Shape == Circular:
 		nu, name = Hausen(re, pr, ld), corrHausen
+	case o.Laminar == ThermalEntry && d.Shape == ParallelPlates:
+		nu, name = PlatesThermalEntry(re, pr, fd, ld), corrPlatesThermal
 	case o.Laminar == ThermalEntry:
 		nu, name = hausenForm(re, pr, fd, ld), corrHausenRectangular
 	case d.Shape == Circular:

@@ -65,7 +65,7 @@ func TestFlowLaminarSources(t *testing.T) {
 		{slot, Options{}, StephanPlates(re, pr, 25), corrStephanPlates},
 		{tube, Options{Laminar: ThermalEntry}, Hausen(re, pr, 50), corrHausen},
 		{finChannel, Options{Laminar: ThermalEntry}, HausenRectangular(re, pr, 0.25, 10), corrHausenRectangular},
-		{slot, Options{Laminar: ThermalEntry}, HausenRectangular(re, pr, 0, 25), corrHausenRectangular},
+		{slot, Options{Laminar: ThermalEntry}, PlatesThermalEntry(re, pr, 7.541, 25), corrPlatesThermal},
 	}
 	for _, c := range cases {
 		r := Flow(c.d, re, pr, c.o)
