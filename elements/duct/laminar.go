@@ -209,8 +209,12 @@ func Hausen(re, pr dual.Num, lOverD float64) dual.Num {
 //	Nu_m = Nu_T(α) + 0.0668·Gz/(1 + 0.04·Gz^(2/3)),  Gz = Re·Pr·Dh/L.
 //
 // This is an engineering substitution, not a published correlation: it has
-// the right long-duct limit, and its entry term is that of the tube. lOverDh
-// is L/Dh; re and pr must be positive.
+// the right long-duct limit, and its entry term is that of the tube. Against
+// this package's numerical solution of the rectangular Graetz problem it
+// stays within 12 % with all walls heated (α = 0.25 and 1) and within 20 %
+// for one heated wall of a square duct, over 10⁻³ ≤ x* ≤ 0.3 (Flow uses it
+// with the Nu_T of the heated walls). lOverDh is L/Dh; re and pr must be
+// positive.
 func HausenRectangular(re, pr dual.Num, alpha, lOverDh float64) dual.Num {
 	return hausenForm(re, pr, ShahLondonNuT(alpha), lOverDh)
 }
