@@ -105,11 +105,11 @@ func Passages(d duct.Duct, count int) (ChannelGeometry, error) {
 // T_out = T_in + q/(ṁc_p) exactly, rather than assuming a mean temperature
 // difference. h̄ = Nu·k/D_h, with Nu from duct.Flow (Shah & London fully
 // developed, Muzychka & Yovanovich or Stephan combined entry in short
-// channels, Gnielinski or Dittus–Boelter turbulent, in transition the
-// Gnielinski 2013 interpolation or the turbulent correlation) at Re = ṁD_h/(A_flow·μ). The air properties μ, k, c_p and Pr
-// are taken at the mean bulk temperature T_m = (T_in + T_out)/2 of the
-// current Newton iterate, so the solution is consistent with them; c_p in
-// the energy balance is Env.AirCp, the network's single value. Fins, when
+// channels, Gnielinski or Dittus–Boelter turbulent, in transition
+// Gnielinski's interpolation or the turbulent correlation, per Options) at
+// Re = ṁD_h/(A_flow·μ). The air properties μ, k, c_p and Pr are taken at
+// the mean bulk temperature T_m = (T_in + T_out)/2 of the current Newton
+// iterate, so the solution is consistent with them; c_p in the energy balance is Env.AirCp, the network's single value. Fins, when
 // present, count through their efficiency, A_eff = A_prime + η_f·A_fin,
 // with η_f for a straight rectangular fin with an adiabatic tip under h̄.
 //
@@ -119,11 +119,11 @@ func Passages(d duct.Duct, count int) (ChannelGeometry, error) {
 // flow arrives already developing, and the segment's mean Nusselt number
 // and friction factor are those of the stretch from Upstream to
 // Upstream + L, Nu_seg = [(x₀+L)·Nu_m(x₀+L) − x₀·Nu_m(x₀)]/L, which
-// follows from h̄·L = ∫h dx, never below the fully developed value (duct.Segment).
-// Downstream is the length of the same channels after it. The entry loss
-// is charged only to the segment at the entry (Upstream 0), the exit loss
-// only to the last one (Downstream 0), so that the pressure drops of a
-// split channel add up to the whole channel's.
+// follows from h̄·L = ∫h dx, never below the fully developed value
+// (duct.Segment). Downstream is the length of the same channels after it.
+// The entry loss is charged only to the segment at the entry (Upstream 0),
+// the exit loss only to the last one (Downstream 0), so that the pressure
+// drops of a split channel add up to the whole channel's.
 type Channel struct {
 	Wall, Inlet, Outlet int
 	Flow                int // the variable holding the mass flow, kg/s

@@ -15,7 +15,7 @@ var (
 	slot       = Duct{Shape: ParallelPlates, Gap: 0.002, Width: 0.08, Length: 0.1}       // L/Dh 25
 	roughTube  = Duct{Shape: Circular, Diameter: 0.01, Length: 0.5, Roughness: 1e-5}     // e = 1e-3
 	squareDuct = Duct{Shape: Rectangular, Width: 0.01, Height: 0.01, Length: 0.01 * 1e5} // very long
-	allOptions = []Options{{}, {Turbulent: DittusBoelter, Heating: true}, {ShortDuct: true}, {Laminar: ThermalEntry}}
+	allOptions = []Options{{}, {Turbulent: DittusBoelter, Heating: true}, {ShortDuct: true}, {Laminar: ThermalEntry}, {Developed: true}, {Transition: TransitionInterpolate4000, ShortDuct: true}}
 )
 
 func flowDucts() []Duct { return []Duct{finChannel, tube, slot, roughTube} }
