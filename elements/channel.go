@@ -109,9 +109,10 @@ func Passages(d duct.Duct, count int) (ChannelGeometry, error) {
 // Gnielinski's interpolation or the turbulent correlation, per Options) at
 // Re = ṁD_h/(A_flow·μ). The air properties μ, k, c_p and Pr are taken at
 // the mean bulk temperature T_m = (T_in + T_out)/2 of the current Newton
-// iterate, so the solution is consistent with them; c_p in the energy balance is Env.AirCp, the network's single value. Fins, when
-// present, count through their efficiency, A_eff = A_prime + η_f·A_fin,
-// with η_f for a straight rectangular fin with an adiabatic tip under h̄.
+// iterate, so the solution is consistent with them; c_p in the energy
+// balance is Env.AirCp, the network's single value. Fins, when present,
+// count through their efficiency, A_eff = A_prime + η_f·A_fin, with η_f for
+// a straight rectangular fin with an adiabatic tip under h̄.
 //
 // A channel may be one segment of longer channels (a heat sink split along
 // the flow, say, so that each part has its own base temperature). Its
