@@ -153,7 +153,8 @@ func parseChannel(o *object, m *Model) LinkParams {
 	var okU, okD bool
 	c.Upstream, okU = segmentLength(o, "upstream_length", "before")
 	c.Downstream, okD = segmentLength(o, "downstream_length", "after")
-	if !okU || !okD || !channelOptions(o, &c.Options) {
+	okO := channelOptions(o, &c.Options)
+	if !okU || !okD || !okO {
 		return nil
 	}
 	return c
