@@ -176,7 +176,9 @@ const TransitionWarning = "transitional flow (2300 < Re < 10^4): heat transfer a
 // as its laminar term: the Muzychka & Yovanovich (2009) apparent friction
 // over the length, or with o.Developed the fully developed f·Re/Re. For a
 // long circular tube this is Churchill (1977) itself, which follows Colebrook
-// in turbulent flow and bridges the transition range continuously.
+// in turbulent flow and bridges the transition range continuously; its
+// turbulent term already lifts f near the top of the laminar range (0.1 %
+// above 64/Re at Re 2000, 11 % at 2300, for a long tube).
 //
 // NuDeveloped and FDeveloped are the same model's values for fully
 // developed flow at the same Re and Pr: the least the mean over any stretch
