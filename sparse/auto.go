@@ -1,0 +1,210 @@
+package sparse
+
+import (
+	"errors"
+	"fmt"
+)
+
+// DefaultDirectFlopLimit is the factorisation work, in multiply-adds as
+// counted by FillEstimate.Flops, above which Auto turns to an iterative
+// solver. It is the measured cross-over: see the package documentation.
+const DefaultDirectFlopLimit = 2e9
+
+// symmetryTol is the relative tolerance of the value-symmetry test.
+const symmetryTol = 1e-12
+
+// AutoSolver chooses a solver by the size and structure of the matrix.
+//
+// The rule: Analyse orders the pattern by AMD, which also yields the exact
+// size and work of the factor. When that work is at most DirectFlopLimit
+// (default DefaultDirectFlopLimit) it solves directly: each Factorize tests
+// whether the values are symmetric (to 1e-12 of the row scales) and uses
+// Cholesky if they are, LU if not or if Cholesky finds −A not positive
+// definite; both share the one symbolic analysis. Above the limit it
+// iterates: CG with IC(0) for symmetric values, BiCGStab with ILU(0)
+// otherwise (or when CG meets a direction of non-positive curvature), at
+// the tolerance set by SetTolerance (default DefaultTol). Failure to
+// converge is an error wrapping ErrNotConverged; there is no silent
+// fallback. Dense solving of small models is left to the caller.
+type AutoSolver struct {
+	// DirectFlopLimit overrides DefaultDirectFlopLimit when positive.
+	DirectFlopLimit float64
+
+	fill      FillEstimate
+	direct    bool
+	sym       *Symbolic
+	chol      *Cholesky
+	lu        *LU
+	cg        *CG
+	bicg      *BiCGStab
+	chosen    Solver
+	tol       float64
+	warm      bool
+	patPtr    []int
+	patCol    []int
+	analysed  bool
+	lastIters int
+	lastRes   float64
+}
+
+// Auto returns a solver for matrices with a's pattern, already analysed.
+func Auto(a *Matrix) *AutoSolver {
+	s := &AutoSolver{}
+	s.Analyse(a)
+	return s
+}
+
+// Analyse orders a and decides between direct and iterative solving. A
+// second call with the same pattern does nothing.
+func (s *AutoSolver) Analyse(a *Matrix) error {
+	if s.analysed && samePattern(a, len(s.patPtr)-1, s.patPtr, s.patCol) {
+		return nil
+	}
+	perm, fill := AMDWithFill(a)
+	s.fill = fill
+	limit := s.DirectFlopLimit
+	if limit <= 0 {
+		limit = DefaultDirectFlopLimit
+	}
+	s.direct = fill.Flops <= limit
+	s.sym, s.chol, s.lu, s.cg, s.bicg, s.chosen = nil, nil, nil, nil, nil, nil
+	if s.direct {
+		sym, err := AnalyseWith(a, perm)
+		if err != nil {
+			return err
+		}
+		s.sym = sym
+	}
+	s.patPtr = append(s.patPtr[:0], a.RowPtr...)
+	s.patCol = append(s.patCol[:0], a.Col...)
+	s.analysed = true
+	return nil
+}
+
+// Fill returns the factor size and work that the ordering leads to.
+func (s *AutoSolver) Fill() FillEstimate { return s.fill }
+
+// Kind names the solver in use: "cholesky", "lu", "cg" or "bicgstab"
+// ("" before the first Factorize).
+func (s *AutoSolver) Kind() string {
+	switch s.chosen.(type) {
+	case *Cholesky:
+		return "cholesky"
+	case *LU:
+		return "lu"
+	case *CG:
+		return "cg"
+	case *BiCGStab:
+		return "bicgstab"
+	}
+	return ""
+}
+
+// Factorize chooses the solver for a's values and factorizes.
+func (s *AutoSolver) Factorize(a *Matrix) error {
+	if !s.analysed {
+		if err := s.Analyse(a); err != nil {
+			return err
+		}
+	}
+	symmetric := IsSymmetric(a, symmetryTol)
+	if s.direct {
+		if symmetric {
+			if s.chol == nil {
+				s.chol = NewCholesky()
+				s.chol.UseSymbolic(s.sym)
+			}
+			err := s.chol.Factorize(a)
+			if !errors.Is(err, ErrNotDefinite) {
+				s.chosen = s.chol
+				return err
+			}
+		}
+		if s.lu == nil {
+			s.lu = NewLU()
+			s.lu.UseSymbolic(s.sym)
+		}
+		s.chosen = s.lu
+		return s.lu.Factorize(a)
+	}
+	if symmetric {
+		if s.cg == nil {
+			s.cg = NewCG()
+		}
+		s.chosen = s.cg
+	} else {
+		if s.bicg == nil {
+			s.bicg = NewBiCGStab()
+		}
+		s.chosen = s.bicg
+	}
+	s.configure()
+	return s.chosen.Factorize(a)
+}
+
+func (s *AutoSolver) configure() {
+	if it, ok := s.chosen.(Iterative); ok {
+		it.SetTolerance(s.tol)
+		it.SetWarmStart(s.warm)
+	}
+}
+
+// Solve solves with the chosen solver.
+func (s *AutoSolver) Solve(x, b []float64) error {
+	if s.chosen == nil {
+		return fmt.Errorf("%w: no factorisation", ErrPattern)
+	}
+	err := s.chosen.Solve(x, b)
+	if cg, ok := s.chosen.(*CG); ok && errors.Is(err, ErrNotDefinite) {
+		if s.bicg == nil {
+			s.bicg = NewBiCGStab()
+		}
+		s.chosen = s.bicg
+		s.configure()
+		if err = s.bicg.Factorize(&cg.a); err != nil {
+			return err
+		}
+		err = s.bicg.Solve(x, b)
+	}
+	if it, ok := s.chosen.(Iterative); ok {
+		s.lastIters, s.lastRes = it.Stats()
+	}
+	return err
+}
+
+// SetTolerance sets the relative residual for the iterative solvers; the
+// direct ones solve exactly.
+func (s *AutoSolver) SetTolerance(rel float64) { s.tol = rel; s.configure() }
+
+// SetWarmStart makes the iterative solvers start from the given x.
+func (s *AutoSolver) SetWarmStart(on bool) { s.warm = on; s.configure() }
+
+// Stats returns the iterations and relative residual of the last iterative
+// solve (zero for a direct one).
+func (s *AutoSolver) Stats() (int, float64) {
+	if _, ok := s.chosen.(Iterative); ok {
+		return s.lastIters, s.lastRes
+	}
+	return 0, 0
+}
+
+// SolveTranspose solves Aᵀ·x = b with a direct factorisation.
+func (s *AutoSolver) SolveTranspose(x, b []float64) error {
+	ts, ok := s.chosen.(TransposeSolver)
+	if !ok {
+		return fmt.Errorf("sparse: %s cannot solve with the transpose", s.Kind())
+	}
+	return ts.SolveTranspose(x, b)
+}
+
+var (
+	_ Iterative       = (*AutoSolver)(nil)
+	_ Iterative       = (*CG)(nil)
+	_ Iterative       = (*BiCGStab)(nil)
+	_ Solver          = (*Cholesky)(nil)
+	_ Solver          = (*LU)(nil)
+	_ Solver          = (*PivotLU)(nil)
+	_ TransposeSolver = (*LU)(nil)
+	_ TransposeSolver = (*Cholesky)(nil)
+	_ TransposeSolver = (*PivotLU)(nil)
+)

@@ -1,0 +1,5 @@
+package sparse
+
+import "slices"
+
+func slicesSort(s []int32) { slices.Sort(s) }
