@@ -37,7 +37,8 @@ func (s *stamp) ground(i int, g float64) {
 }
 
 // stream carries heat m·c from up to down (upwind): only the downstream
-// row gets the upstream temperature, the upstream row loses it.
+// row gets the upstream temperature, the upstream row loses it. The last
+// node of a stream passes its heat to the ambient: ground(last, m·c).
 func (s *stamp) stream(up, down int, mc float64) {
 	s.b.Mark(up, down)
 	s.b.Mark(down, up)
@@ -118,15 +119,19 @@ func network(n int, rng *rand.Rand, streams bool) *Matrix {
 		s.ground(rng.IntN(n), 0.1+rng.Float64())
 	}
 	if streams {
+		// Each stream enters from the ambient (no Jacobian entry), passes
+		// through a few nodes and leaves to the ambient from the last.
 		for k := 0; k < 1+n/10; k++ {
 			up := rng.IntN(n)
+			mc := 0.5 + 2*rng.Float64()
 			for l := 0; l < 4; l++ {
 				down := rng.IntN(n)
 				if down != up {
-					s.stream(up, down, 0.5+2*rng.Float64())
+					s.stream(up, down, mc)
 					up = down
 				}
 			}
+			s.ground(up, mc) // the outlet
 		}
 	}
 	return s.build()
