@@ -17,10 +17,10 @@ func TestAutoChoice(t *testing.T) {
 	}{
 		{"symmetric", sym, 0, "cholesky"},
 		{"unsymmetric", unsym, 0, "lu"},
-		{"symmetric, large", sym, 1e3, "cg"},
-		{"unsymmetric, large", unsym, 1e3, "bicgstab"},
+		{"symmetric, large", sym, 1e-9, "cg"},
+		{"unsymmetric, large", unsym, 1e-9, "bicgstab"},
 	} {
-		s := &AutoSolver{DirectFlopLimit: c.limit}
+		s := &AutoSolver{IterativeWeight: c.limit, DirectFloor: c.limit}
 		if err := s.Analyse(c.a); err != nil {
 			t.Fatal(err)
 		}
@@ -76,5 +76,55 @@ func TestAutoFollowsValues(t *testing.T) {
 	}
 	if e := relErr(x, denseSolve(t, a, b, false)); e > 1e-10 {
 		t.Errorf("error %.3g", e)
+	}
+}
+
+// The pseudo-diameter of a grid is its longest path between corners.
+func TestPseudoDiameter(t *testing.T) {
+	rng := rand.New(rand.NewPCG(37, 38))
+	for _, c := range []struct {
+		a    *Matrix
+		want int
+	}{
+		{grid2D(30, 20, rng), 48},
+		{grid3D(5, 6, 7, rng), 15},
+		{grid2D(1, 9, rng), 8},
+		{NewBuilder(5).Build(), 0},
+	} {
+		if got := PseudoDiameter(c.a); got != c.want {
+			t.Errorf("order %d: pseudo-diameter %d, want %d", c.a.N, got, c.want)
+		}
+	}
+	// Two components: the larger diameter counts.
+	s := newStamp(10)
+	for k := 1; k < 4; k++ {
+		s.conductance(k-1, k, 1)
+	}
+	for k := 5; k < 10; k++ {
+		s.conductance(k-1, k, 1)
+	}
+	if got := PseudoDiameter(s.build()); got != 5 {
+		t.Errorf("two chains: %d, want 5", got)
+	}
+}
+
+// The rule picks direct for the 2-D grid and iterative for the 3-D grid of
+// the same size, as the benchmarks measured.
+func TestAutoRule(t *testing.T) {
+	rng := rand.New(rand.NewPCG(39, 40))
+	for _, c := range []struct {
+		name   string
+		a      *Matrix
+		direct bool
+	}{
+		{"2D 100×100", grid2D(100, 100, rng), true},
+		{"3D 22³", grid3D(22, 22, 22, rng), false},
+		{"network 2000", network(2000, rng, false), true},
+	} {
+		s := Auto(c.a)
+		d, w := s.Work()
+		if s.direct != c.direct {
+			t.Errorf("%s: direct %v (factor %.3g, iterative %.3g), want %v", c.name, s.direct, d, w, c.direct)
+		}
 	}
 }

@@ -84,7 +84,7 @@ func TestConditionEstimateNeedsFactor(t *testing.T) {
 	rng := rand.New(rand.NewPCG(31, 32))
 	a := grid2D(10, 10, rng)
 	s := Auto(a)
-	s.DirectFlopLimit = 1e-9
+	s.IterativeWeight, s.DirectFloor = 1e-9, 1e-9
 	s.analysed = false
 	if err := s.Factorize(a); err != nil {
 		t.Fatal(err)
