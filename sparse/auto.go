@@ -11,10 +11,12 @@ import (
 // ErrSingular, with no convergence to doubt.
 const DefaultDirectFloor = 1e8
 
-// DefaultIterativeWeight scales Auto's estimate of the iterative work in
-// the comparison with the direct work; 1 is the measured cross-over (see
-// the package documentation).
-const DefaultIterativeWeight = 1.0
+// DefaultIterativeWeight is Auto's estimate of the work of a
+// multigrid-preconditioned solve (set-up included) in units of
+// 3·nnz(A) + 10·n operations, about one matrix-vector product with the
+// vector updates of one Krylov iteration; 100 is the measured cross-over
+// (see the package documentation).
+const DefaultIterativeWeight = 100.0
 
 // symmetryTol is the relative tolerance of the value-symmetry test.
 const symmetryTol = 1e-12
@@ -23,22 +25,18 @@ const symmetryTol = 1e-12
 //
 // The rule: Analyse orders the pattern by AMD, which also yields the exact
 // work F of the factorisation (FillEstimate.Flops, multiply-adds). It
-// estimates the work of one preconditioned Krylov solve as
-// W = d·(3·nnz(A) + 10·n), with d the pseudo-diameter of the graph of A (a
-// breadth-first search from a far node): the iterations of CG with IC(0) on
-// a conduction network grow as the square root of the condition number,
-// which grows as the square of the diameter, and on grids grounded along
-// one face we measured about d iterations to a relative residual of 1e-10,
-// each costing about 3·nnz + 10·n operations. When F ≤ IterativeWeight·W
-// (default DefaultIterativeWeight), or F ≤ DirectFloor (default
-// DefaultDirectFloor, for the small and irregular networks whose
-// conductances span decades and whose convergence the diameter does not
-// predict), it solves directly: each Factorize tests
-// whether the values are symmetric (to 1e-12 of the row scales) and uses
-// Cholesky if they are, LU if not or if Cholesky finds −A not positive
+// estimates the work of one multigrid-preconditioned Krylov solve, whose
+// iteration count hardly depends on the size, as
+// W = IterativeWeight·(3·nnz(A) + 10·n) (default DefaultIterativeWeight).
+// When F ≤ W, or F ≤ DirectFloor (default DefaultDirectFloor, for the
+// small and irregular networks whose conductances span decades), it solves
+// directly: each Factorize tests whether the values are symmetric (to 1e-12
+// of the row scales) and uses Cholesky if they are, LU if not or if
+// Cholesky finds −A not positive
 // definite; both share the one symbolic analysis. Above the limit it
-// iterates: CG with IC(0) for symmetric values, BiCGStab with ILU(0)
-// otherwise (or when CG meets a direction of non-positive curvature), at
+// iterates: CG for symmetric values, BiCGStab otherwise (or when CG meets a
+// direction of non-positive curvature), both preconditioned by AMG whose
+// aggregates are kept for later values of the same pattern, at
 // the tolerance set by SetTolerance (default DefaultTol). Failure to
 // converge is an error wrapping ErrNotConverged; there is no silent
 // fallback. Dense solving of small models is left to the caller.
@@ -85,12 +83,12 @@ func (s *AutoSolver) Analyse(a *Matrix) error {
 	if weight <= 0 {
 		weight = DefaultIterativeWeight
 	}
-	s.iterWork = float64(PseudoDiameter(a)) * float64(3*a.NNZ()+10*a.N)
+	s.iterWork = weight * float64(3*a.NNZ()+10*a.N)
 	floor := s.DirectFloor
 	if floor <= 0 {
 		floor = DefaultDirectFloor
 	}
-	s.direct = fill.Flops <= weight*s.iterWork || fill.Flops <= floor
+	s.direct = fill.Flops <= s.iterWork || fill.Flops <= floor
 	s.sym, s.chol, s.lu, s.cg, s.bicg, s.chosen = nil, nil, nil, nil, nil, nil
 	if s.direct {
 		sym, err := AnalyseWith(a, perm)
@@ -111,63 +109,6 @@ func (s *AutoSolver) Fill() FillEstimate { return s.fill }
 // Work returns the estimates Auto compared: the multiply-adds of the
 // factorisation and the operations of one iterative solve.
 func (s *AutoSolver) Work() (direct, iterative float64) { return s.fill.Flops, s.iterWork }
-
-// PseudoDiameter returns the eccentricity of a far node of the graph of
-// A+Aᵀ, a lower bound of its diameter found by repeated breadth-first
-// searches (the largest over the connected components).
-func PseudoDiameter(a *Matrix) int {
-	ptr, idx := symPattern(a)
-	n := a.N
-	level := make([]int, n)
-	for i := range level {
-		level[i] = -1
-	}
-	queue := make([]int, 0, n)
-	bfs := func(root int) (far, ecc int) {
-		queue = append(queue[:0], root)
-		level[root] = 0
-		far = root
-		for h := 0; h < len(queue); h++ {
-			i := queue[h]
-			for _, j := range idx[ptr[i]:ptr[i+1]] {
-				if level[j] < 0 {
-					level[j] = level[i] + 1
-					queue = append(queue, int(j))
-					if level[j] > ecc {
-						far, ecc = int(j), level[j]
-					}
-				}
-			}
-		}
-		return far, ecc
-	}
-	reset := func() {
-		for _, i := range queue {
-			level[i] = -1
-		}
-	}
-	diam := 0
-	done := make([]bool, n)
-	for r := 0; r < n; r++ {
-		if done[r] {
-			continue
-		}
-		far, ecc := bfs(r)
-		for try := 0; try < 4; try++ {
-			reset()
-			f2, e2 := bfs(far)
-			if e2 <= ecc {
-				break
-			}
-			far, ecc = f2, e2
-		}
-		for _, i := range queue {
-			done[i] = true
-		}
-		diam = max(diam, ecc)
-	}
-	return diam
-}
 
 // Kind names the solver in use: "cholesky", "lu", "cg" or "bicgstab"
 // ("" before the first Factorize).
@@ -214,12 +155,12 @@ func (s *AutoSolver) Factorize(a *Matrix) error {
 	}
 	if symmetric {
 		if s.cg == nil {
-			s.cg = NewCG()
+			s.cg = &CG{iterBase{Precond: &AMG{ReuseAggregates: true}}}
 		}
 		s.chosen = s.cg
 	} else {
 		if s.bicg == nil {
-			s.bicg = NewBiCGStab()
+			s.bicg = &BiCGStab{iterBase{Precond: &AMG{ReuseAggregates: true}}}
 		}
 		s.chosen = s.bicg
 	}
@@ -242,7 +183,7 @@ func (s *AutoSolver) Solve(x, b []float64) error {
 	err := s.chosen.Solve(x, b)
 	if cg, ok := s.chosen.(*CG); ok && errors.Is(err, ErrNotDefinite) {
 		if s.bicg == nil {
-			s.bicg = NewBiCGStab()
+			s.bicg = &BiCGStab{iterBase{Precond: &AMG{ReuseAggregates: true}}}
 		}
 		s.chosen = s.bicg
 		s.configure()

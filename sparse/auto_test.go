@@ -79,35 +79,6 @@ func TestAutoFollowsValues(t *testing.T) {
 	}
 }
 
-// The pseudo-diameter of a grid is its longest path between corners.
-func TestPseudoDiameter(t *testing.T) {
-	rng := rand.New(rand.NewPCG(37, 38))
-	for _, c := range []struct {
-		a    *Matrix
-		want int
-	}{
-		{grid2D(30, 20, rng), 48},
-		{grid3D(5, 6, 7, rng), 15},
-		{grid2D(1, 9, rng), 8},
-		{NewBuilder(5).Build(), 0},
-	} {
-		if got := PseudoDiameter(c.a); got != c.want {
-			t.Errorf("order %d: pseudo-diameter %d, want %d", c.a.N, got, c.want)
-		}
-	}
-	// Two components: the larger diameter counts.
-	s := newStamp(10)
-	for k := 1; k < 4; k++ {
-		s.conductance(k-1, k, 1)
-	}
-	for k := 5; k < 10; k++ {
-		s.conductance(k-1, k, 1)
-	}
-	if got := PseudoDiameter(s.build()); got != 5 {
-		t.Errorf("two chains: %d, want 5", got)
-	}
-}
-
 // The rule picks direct for the 2-D grid and iterative for the 3-D grid of
 // the same size, as the benchmarks measured.
 func TestAutoRule(t *testing.T) {

@@ -88,6 +88,8 @@ func BenchmarkFactorSolve(b *testing.B) {
 		{"cg-ic0", false, func() Solver { return NewCG() }},
 		{"cg-jacobi", false, func() Solver { return &CG{iterBase{Precond: &Jacobi{}}} }},
 		{"bicgstab-ilu0", true, func() Solver { return NewBiCGStab() }},
+		{"cg-amg", false, func() Solver { return &CG{iterBase{Precond: &AMG{ReuseAggregates: true}}} }},
+		{"bicgstab-amg", true, func() Solver { return &BiCGStab{iterBase{Precond: &AMG{ReuseAggregates: true}}} }},
 		{"auto", false, func() Solver { return &AutoSolver{} }},
 		{"auto-streams", true, func() Solver { return &AutoSolver{} }},
 	}
@@ -120,7 +122,8 @@ func BenchmarkFactorSolve(b *testing.B) {
 					b.ReportMetric(float64(it), "iters")
 				}
 				if f, ok := s.(*AutoSolver); ok {
-					b.Logf("auto chose %s (flops %.3g)", f.Kind(), f.Fill().Flops)
+					d, w := f.Work()
+					b.Logf("auto chose %s (factor %.3g, iterative %.3g)", f.Kind(), d, w)
 				}
 			})
 		}

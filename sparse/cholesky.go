@@ -119,8 +119,11 @@ func (c *Cholesky) Factorize(a *Matrix) error {
 			yj := y[j]
 			y[j] = 0
 			end := next[j]
-			for p := s.colPtr[j]; p < end; p++ {
-				y[li[p]] -= lx[p] * yj
+			col := li[s.colPtr[j]:end]
+			val := lx[s.colPtr[j]:end]
+			val = val[:len(col)]
+			for q, i := range col {
+				y[i] -= val[q] * yj
 			}
 			lkj := yj / c.d[j]
 			d -= lkj * yj

@@ -34,16 +34,18 @@
 //     check and a fallback to PivotLU.
 //   - PivotLU: left-looking LU with threshold partial pivoting (Gilbert &
 //     Peierls, SIAM J. Sci. Stat. Comput. 9, 1988; Davis 2006, ch. 6).
-//   - CG (on −A) and BiCGStab with the preconditioners Jacobi and ILU0
-//     (IC(0) on symmetric values), after Y. Saad, Iterative Methods for
-//     Sparse Linear Systems, 2nd ed., SIAM 2003. They implement Iterative:
+//   - CG (on −A) and BiCGStab with the preconditioners Jacobi, ILU0 (IC(0)
+//     on symmetric values) and AMG, smoothed-aggregation algebraic
+//     multigrid (Vaněk, Mandel & Brezina, Computing 56, 1996), after
+//     Y. Saad, Iterative Methods for Sparse Linear Systems, 2nd ed., SIAM
+//     2003. They implement Iterative:
 //     a relative tolerance per solve (inexact Newton, default DefaultTol),
 //     a warm start from x, an iteration limit (default DefaultMaxIter), and
 //     statistics; failing to converge is an error wrapping ErrNotConverged.
 //   - Auto: picks Cholesky or LU by the values at every Factorize, and a
-//     direct or an iterative solver by comparing the factorisation work
-//     that AMD predicts with an iterative estimate from the graph's
-//     diameter (see AutoSolver for the rule and its calibration).
+//     direct or a multigrid-preconditioned iterative solver by comparing
+//     the factorisation work that AMD predicts with an estimate of the
+//     iterative work (see AutoSolver for the rule and its calibration).
 //   - ConditionEstimate: Hager's 1-norm estimator in Higham's form, using a
 //     factorisation; never computed by Factorize, only on request.
 //

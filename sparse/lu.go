@@ -145,10 +145,13 @@ func (f *LU) Factorize(a *Matrix) error {
 			uj := z[j]
 			y[j], z[j] = 0, 0
 			end := next[j]
-			for p := s.colPtr[j]; p < end; p++ {
-				i := li[p]
-				y[i] -= ux[p] * lkj // U(j, i)
-				z[i] -= lx[p] * uj  // L(i, j)
+			col := li[s.colPtr[j]:end]
+			lv := lx[s.colPtr[j]:end]
+			uv := ux[s.colPtr[j]:end]
+			lv, uv = lv[:len(col)], uv[:len(col)]
+			for q, i := range col {
+				y[i] -= uv[q] * lkj // U(j, i)
+				z[i] -= lv[q] * uj  // L(i, j)
 			}
 			d -= lkj * uj
 			li[end] = int32(k)
