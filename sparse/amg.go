@@ -156,8 +156,9 @@ func (l *amgLevel) setDiag() error {
 func (l *amgLevel) aggregate(theta float64) {
 	a := l.a
 	n := a.N
-	// Strong neighbours, symmetrised.
-	strong := make([][]int32, n)
+	// Strong neighbours, symmetrised, in compressed rows.
+	sptr := make([]int, n+1)
+	sidx := make([]int32, 0, len(a.Col))
 	for i := 0; i < n; i++ {
 		di := math.Abs(a.Val[l.diag[i]])
 		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
@@ -170,21 +171,23 @@ func (l *amgLevel) aggregate(theta float64) {
 				v = math.Abs(t)
 			}
 			if v >= theta*math.Sqrt(di*math.Abs(a.Val[l.diag[j]])) {
-				strong[i] = append(strong[i], int32(j))
+				sidx = append(sidx, int32(j))
 			}
 		}
+		sptr[i+1] = len(sidx)
 	}
+	strong := func(i int) []int32 { return sidx[sptr[i]:sptr[i+1]] }
 	agg := make([]int, n)
 	for i := range agg {
 		agg[i] = -1
 	}
 	na := 0
 	for i := 0; i < n; i++ { // pass 1
-		if agg[i] >= 0 || len(strong[i]) == 0 {
+		if agg[i] >= 0 || len(strong(i)) == 0 {
 			continue
 		}
 		free := true
-		for _, j := range strong[i] {
+		for _, j := range strong(i) {
 			if agg[j] >= 0 {
 				free = false
 				break
@@ -194,7 +197,7 @@ func (l *amgLevel) aggregate(theta float64) {
 			continue
 		}
 		agg[i] = na
-		for _, j := range strong[i] {
+		for _, j := range strong(i) {
 			agg[j] = na
 		}
 		na++
@@ -204,7 +207,7 @@ func (l *amgLevel) aggregate(theta float64) {
 		if agg[i] >= 0 {
 			continue
 		}
-		for _, j := range strong[i] {
+		for _, j := range strong(i) {
 			if pass1[j] >= 0 {
 				agg[i] = pass1[j]
 				break
@@ -212,11 +215,11 @@ func (l *amgLevel) aggregate(theta float64) {
 		}
 	}
 	for i := 0; i < n; i++ { // pass 3
-		if agg[i] >= 0 || len(strong[i]) == 0 {
+		if agg[i] >= 0 || len(strong(i)) == 0 {
 			continue
 		}
 		agg[i] = na
-		for _, j := range strong[i] {
+		for _, j := range strong(i) {
 			if agg[j] < 0 {
 				agg[j] = na
 			}
@@ -425,22 +428,20 @@ func (m *AMG) cycle(k int, x, b []float64) {
 func (l *amgLevel) gaussSeidel(x, b []float64, forward bool) {
 	a := l.a
 	n := a.N
-	sweep := func(i int) {
-		s := b[i]
-		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
-			s -= a.Val[k] * x[a.Col[k]]
-		}
-		d := a.Val[l.diag[i]]
-		x[i] += s / d
+	i, step, end := 0, 1, n
+	if !forward {
+		i, step, end = n-1, -1, -1
 	}
-	if forward {
-		for i := 0; i < n; i++ {
-			sweep(i)
+	for ; i != end; i += step {
+		s := b[i]
+		lo, hi := a.RowPtr[i], a.RowPtr[i+1]
+		cols := a.Col[lo:hi]
+		vals := a.Val[lo:hi]
+		vals = vals[:len(cols)]
+		for k, c := range cols {
+			s -= vals[k] * x[c]
 		}
-	} else {
-		for i := n - 1; i >= 0; i-- {
-			sweep(i)
-		}
+		x[i] += s / a.Val[l.diag[i]]
 	}
 }
 

@@ -5,6 +5,7 @@ import (
 	"math/rand/v2"
 	"sync"
 	"testing"
+	"time"
 )
 
 // Benchmark problems: 2-D five-point and 3-D seven-point conduction grids
@@ -63,12 +64,14 @@ func BenchmarkAnalyse(b *testing.B) {
 			a := benchMatrix(p.name, p.nx, p.ny, p.nz, false)
 			b.ReportAllocs()
 			var s *Symbolic
+			cpu0 := cpuTime()
 			for b.Loop() {
 				var err error
 				if s, err = Analyse(a); err != nil {
 					b.Fatal(err)
 				}
 			}
+			b.ReportMetric(float64(cpuTime()-cpu0)/1e6/float64(b.N), "cpu-ms/op")
 			b.ReportMetric(float64(s.NNZL()), "nnzL")
 			b.ReportMetric(s.Flops(), "flops")
 		})
@@ -104,14 +107,23 @@ func BenchmarkFactorSolve(b *testing.B) {
 				rhs := randVec(a.N, rand.New(rand.NewPCG(1, 2)))
 				x := make([]float64, a.N)
 				b.ReportAllocs()
+				cpu0 := cpuTime()
+				var factor, solve time.Duration
 				for b.Loop() {
+					t0 := time.Now()
 					if err := s.Factorize(a); err != nil {
 						b.Fatal(err)
 					}
+					t1 := time.Now()
 					if err := s.Solve(x, rhs); err != nil {
 						b.Fatal(err)
 					}
+					factor += t1.Sub(t0)
+					solve += time.Since(t1)
 				}
+				b.ReportMetric(float64(cpuTime()-cpu0)/1e6/float64(b.N), "cpu-ms/op")
+				b.ReportMetric(float64(factor)/1e6/float64(b.N), "factor-ms/op")
+				b.ReportMetric(float64(solve)/1e6/float64(b.N), "solve-ms/op")
 				switch f := s.(type) {
 				case *Cholesky:
 					b.ReportMetric(float64(f.NNZ()*12)/1e6, "factorMB")

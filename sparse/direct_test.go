@@ -2,6 +2,7 @@ package sparse
 
 import (
 	"errors"
+	"math"
 	"math/rand/v2"
 	"testing"
 )
@@ -272,6 +273,35 @@ func TestPatternMismatch(t *testing.T) {
 		s.Analyse(a)
 		if err := s.Factorize(other); !errors.Is(err, ErrPattern) {
 			t.Errorf("%s: error %v, want ErrPattern", name, err)
+		}
+	}
+}
+
+// An empty system (a network whose every node is fixed) solves trivially.
+func TestEmptyMatrix(t *testing.T) {
+	a := NewBuilder(0).Build()
+	for name, s := range map[string]Solver{
+		"cholesky": NewCholesky(), "lu": NewLU(), "pivotlu": NewPivotLU(),
+		"cg": NewCG(), "bicgstab": NewBiCGStab(), "amg": &CG{iterBase{Precond: &AMG{}}}, "auto": Auto(a),
+	} {
+		if err := s.Analyse(a); err != nil {
+			t.Errorf("%s: Analyse: %v", name, err)
+		}
+		if err := s.Factorize(a); err != nil {
+			t.Errorf("%s: Factorize: %v", name, err)
+		}
+		if err := s.Solve(nil, nil); err != nil {
+			t.Errorf("%s: Solve: %v", name, err)
+		}
+	}
+}
+
+func TestNonFinite(t *testing.T) {
+	a := grid2D(4, 4, rand.New(rand.NewPCG(47, 48)))
+	a.Val[5] = math.NaN()
+	for name, s := range map[string]Solver{"cholesky": NewCholesky(), "lu": NewLU(), "pivotlu": NewPivotLU(), "cg": NewCG(), "auto": Auto(a)} {
+		if err := s.Factorize(a); err == nil {
+			t.Errorf("%s: a NaN entry must be an error", name)
 		}
 	}
 }
