@@ -234,7 +234,8 @@ func (l *amgLevel) prolongation() {
 	a := l.a
 	n := a.N
 	omega := 4.0 / 3.0 / l.spectralRadius()
-	p := csr{rows: n, cols: l.nagg, ptr: make([]int, n+1)}
+	p := csr{rows: n, cols: l.nagg, ptr: make([]int, n+1),
+		col: make([]int, 0, len(a.Col)+n), val: make([]float64, 0, len(a.Col)+n)}
 	acc := make([]float64, l.nagg)
 	where := make([]int, l.nagg)
 	for i := range where {
@@ -331,17 +332,34 @@ func (c csr) transpose() csr {
 	return t
 }
 
-// mul returns x·y (Gustavson's row-by-row product) with sorted rows.
+// mul returns x·y (Gustavson's row-by-row product) with sorted rows: a
+// counting pass sizes the result, a second pass fills it.
 func mul(x, y csr) csr {
 	z := csr{rows: x.rows, cols: y.cols, ptr: make([]int, x.rows+1)}
-	acc := make([]float64, y.cols)
 	where := make([]int, y.cols)
 	for i := range where {
 		where[i] = -1
 	}
-	var touched []int
 	for i := 0; i < x.rows; i++ {
-		touched = touched[:0]
+		c := 0
+		for k := x.ptr[i]; k < x.ptr[i+1]; k++ {
+			for _, col := range y.col[y.ptr[x.col[k]]:y.ptr[x.col[k]+1]] {
+				if where[col] != i {
+					where[col] = i
+					c++
+				}
+			}
+		}
+		z.ptr[i+1] = z.ptr[i] + c
+	}
+	z.col = make([]int, z.ptr[x.rows])
+	z.val = make([]float64, z.ptr[x.rows])
+	acc := make([]float64, y.cols)
+	for i := range where {
+		where[i] = -1
+	}
+	for i := 0; i < x.rows; i++ {
+		row := z.col[z.ptr[i]:z.ptr[i]:z.ptr[i+1]]
 		for k := x.ptr[i]; k < x.ptr[i+1]; k++ {
 			j, v := x.col[k], x.val[k]
 			for q := y.ptr[j]; q < y.ptr[j+1]; q++ {
@@ -349,17 +367,15 @@ func mul(x, y csr) csr {
 				if where[c] != i {
 					where[c] = i
 					acc[c] = 0
-					touched = append(touched, c)
+					row = append(row, c)
 				}
 				acc[c] += v * y.val[q]
 			}
 		}
-		slices.Sort(touched)
-		for _, c := range touched {
-			z.col = append(z.col, c)
-			z.val = append(z.val, acc[c])
+		slices.Sort(row)
+		for k, c := range row {
+			z.val[z.ptr[i]+k] = acc[c]
 		}
-		z.ptr[i+1] = len(z.col)
 	}
 	return z
 }
@@ -368,7 +384,8 @@ func mul(x, y csr) csr {
 func galerkin(r csr, a *Matrix, p csr) *Matrix {
 	ac := csr{rows: a.N, cols: a.N, ptr: a.RowPtr, col: a.Col, val: a.Val}
 	c := mul(r, mul(ac, p))
-	m := &Matrix{N: c.rows, RowPtr: make([]int, c.rows+1)}
+	m := &Matrix{N: c.rows, RowPtr: make([]int, c.rows+1),
+		Col: make([]int, 0, len(c.col)+c.rows), Val: make([]float64, 0, len(c.col)+c.rows)}
 	for i := 0; i < c.rows; i++ {
 		hasDiag := false
 		for k := c.ptr[i]; k < c.ptr[i+1]; k++ {
