@@ -3,6 +3,7 @@ package sparse
 import (
 	"errors"
 	"fmt"
+	"math"
 )
 
 // DefaultDirectFloor is the factorisation work, in multiply-adds, below
@@ -36,7 +37,9 @@ const symmetryTol = 1e-12
 // definite; both share the one symbolic analysis. Above the limit it
 // iterates: CG for symmetric values, BiCGStab otherwise (or when CG meets a
 // direction of non-positive curvature), both preconditioned by AMG whose
-// aggregates are kept for later values of the same pattern, at
+// aggregates are kept for later values of the same pattern, except that
+// BiCGStab takes ILU(0) where air streams dominate (Asymmetry above
+// AdvectionLimit, default DefaultAdvectionLimit), at
 // the tolerance set by SetTolerance (default DefaultTol). Failure to
 // converge is an error wrapping ErrNotConverged; there is no silent
 // fallback. Dense solving of small models is left to the caller.
@@ -45,6 +48,8 @@ type AutoSolver struct {
 	IterativeWeight float64
 	// DirectFloor overrides DefaultDirectFloor when positive.
 	DirectFloor float64
+	// AdvectionLimit overrides DefaultAdvectionLimit when positive.
+	AdvectionLimit float64
 
 	fill      FillEstimate
 	iterWork  float64
@@ -110,6 +115,57 @@ func (s *AutoSolver) Fill() FillEstimate { return s.fill }
 // factorisation and the operations of one iterative solve.
 func (s *AutoSolver) Work() (direct, iterative float64) { return s.fill.Flops, s.iterWork }
 
+// DefaultAdvectionLimit is the mean row asymmetry (see Asymmetry) above
+// which Auto preconditions BiCGStab by ILU(0) instead of multigrid.
+const DefaultAdvectionLimit = 0.25
+
+// Asymmetry returns the mean over the rows of Σ_j |a_ij − a_ji| / (2·|a_ii|):
+// zero for symmetric values, near one for a row dominated by an upwind
+// air stream (a stream stamps −ṁc on the diagonal of its upstream row and
+// +ṁc into its downstream row only).
+func Asymmetry(a *Matrix) float64 {
+	if a.N == 0 {
+		return 0
+	}
+	sum := 0.0
+	for i := 0; i < a.N; i++ {
+		d := math.Abs(a.At(i, i))
+		if d == 0 {
+			continue
+		}
+		r := 0.0
+		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
+			if j := a.Col[k]; j != i {
+				r += math.Abs(a.Val[k] - a.At(j, i))
+			}
+		}
+		sum += math.Min(r/(2*d), 1)
+	}
+	return sum / float64(a.N)
+}
+
+// choosePrecond gives BiCGStab multigrid, or ILU(0) where air streams
+// dominate: smoothed aggregation is built for diffusion, and its
+// iterations grow several-fold once advection dominates, while ILU(0) in
+// an order that follows the streams (the order in which a network numbers
+// its air nodes along a duct) is then nearly exact. Both were measured on
+// a 100×100 grid with a stream along every second line: at ṁc ten times
+// the conductances 11 multigrid against 18 ILU(0) iterations, at a hundred
+// times 98 against 7.
+func (s *AutoSolver) choosePrecond(a *Matrix) {
+	limit := s.AdvectionLimit
+	if limit <= 0 {
+		limit = DefaultAdvectionLimit
+	}
+	if Asymmetry(a) > limit {
+		if _, ok := s.bicg.Precond.(*ILU0); !ok {
+			s.bicg.Precond = &ILU0{}
+		}
+	} else if _, ok := s.bicg.Precond.(*AMG); !ok {
+		s.bicg.Precond = &AMG{ReuseAggregates: true}
+	}
+}
+
 // Kind names the solver in use: "cholesky", "lu", "cg" or "bicgstab"
 // ("" before the first Factorize).
 func (s *AutoSolver) Kind() string {
@@ -162,6 +218,7 @@ func (s *AutoSolver) Factorize(a *Matrix) error {
 		if s.bicg == nil {
 			s.bicg = &BiCGStab{iterBase{Precond: &AMG{ReuseAggregates: true}}}
 		}
+		s.choosePrecond(a)
 		s.chosen = s.bicg
 	}
 	s.configure()

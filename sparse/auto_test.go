@@ -1,6 +1,7 @@
 package sparse
 
 import (
+	"fmt"
 	"math/rand/v2"
 	"testing"
 )
@@ -96,6 +97,42 @@ func TestAutoRule(t *testing.T) {
 		d, w := s.Work()
 		if s.direct != c.direct {
 			t.Errorf("%s: direct %v (factor %.3g, iterative %.3g), want %v", c.name, s.direct, d, w, c.direct)
+		}
+	}
+}
+
+// Where air streams dominate, the iterative path preconditions by ILU(0);
+// where conduction does, by multigrid.
+func TestAutoAdvection(t *testing.T) {
+	for _, c := range []struct {
+		mc   float64
+		want string
+	}{{0.5, "*sparse.AMG"}, {100, "*sparse.ILU0"}} {
+		rng := rand.New(rand.NewPCG(49, 50))
+		nx, ny := 40, 40
+		a := grid2D(nx, ny, rng)
+		for y := 0; y < ny; y += 2 {
+			for x := 1; x < nx; x++ {
+				up, down := x-1+nx*y, x+nx*y
+				a.Add(up, up, -c.mc)
+				a.Add(down, up, c.mc)
+			}
+			a.Add(nx-1+nx*y, nx-1+nx*y, -c.mc) // the outlet
+		}
+		s := &AutoSolver{IterativeWeight: 1e-9, DirectFloor: 1e-9}
+		if err := s.Factorize(a); err != nil {
+			t.Fatal(err)
+		}
+		if got := fmt.Sprintf("%T", s.bicg.Precond); s.Kind() != "bicgstab" || got != c.want {
+			t.Errorf("ṁc %g (asymmetry %.2f): %s with %s, want bicgstab with %s", c.mc, Asymmetry(a), s.Kind(), got, c.want)
+		}
+		b := randVec(a.N, rng)
+		x := make([]float64, a.N)
+		if err := s.Solve(x, b); err != nil {
+			t.Fatal(err)
+		}
+		if e := relErr(x, denseSolve(t, a, b, false)); e > 1e-7 {
+			t.Errorf("ṁc %g: error %.3g", c.mc, e)
 		}
 	}
 }
