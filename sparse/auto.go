@@ -32,7 +32,8 @@ const symmetryTol = 1e-12
 // When F ≤ W, or F ≤ DirectFloor (default DefaultDirectFloor, for the
 // small and irregular networks whose conductances span decades), it solves
 // directly: each Factorize tests whether the values are symmetric (to 1e-12
-// of the row scales) and uses Cholesky if they are, LU if not or if
+// of the row scales) and uses Cholesky (the supernodal one) if they are,
+// LU if not or if
 // Cholesky finds −A not positive
 // definite; both share the one symbolic analysis. Above the limit it
 // iterates: CG for symmetric values, BiCGStab otherwise (or when CG meets a
@@ -55,7 +56,7 @@ type AutoSolver struct {
 	iterWork  float64
 	direct    bool
 	sym       *Symbolic
-	chol      *Cholesky
+	chol      *Supernodal
 	lu        *LU
 	cg        *CG
 	bicg      *BiCGStab
@@ -96,7 +97,7 @@ func (s *AutoSolver) Analyse(a *Matrix) error {
 	s.direct = fill.Flops <= s.iterWork || fill.Flops <= floor
 	s.sym, s.chol, s.lu, s.cg, s.bicg, s.chosen = nil, nil, nil, nil, nil, nil
 	if s.direct {
-		sym, err := AnalyseWith(a, perm)
+		sym, err := AnalyseWith(a, Postorder(a, perm))
 		if err != nil {
 			return err
 		}
@@ -170,7 +171,7 @@ func (s *AutoSolver) choosePrecond(a *Matrix) {
 // ("" before the first Factorize).
 func (s *AutoSolver) Kind() string {
 	switch s.chosen.(type) {
-	case *Cholesky:
+	case *Cholesky, *Supernodal:
 		return "cholesky"
 	case *LU:
 		return "lu"
@@ -193,7 +194,7 @@ func (s *AutoSolver) Factorize(a *Matrix) error {
 	if s.direct {
 		if symmetric {
 			if s.chol == nil {
-				s.chol = NewCholesky()
+				s.chol = NewSupernodal()
 				s.chol.UseSymbolic(s.sym)
 			}
 			err := s.chol.Factorize(a)
@@ -290,4 +291,6 @@ var (
 	_ TransposeSolver = (*LU)(nil)
 	_ TransposeSolver = (*Cholesky)(nil)
 	_ TransposeSolver = (*PivotLU)(nil)
+	_ TransposeSolver = (*Supernodal)(nil)
+	_ Solver          = (*Supernodal)(nil)
 )

@@ -87,6 +87,7 @@ func BenchmarkFactorSolve(b *testing.B) {
 		make    func() Solver
 	}{
 		{"cholesky", false, func() Solver { return NewCholesky() }},
+		{"supernodal", false, func() Solver { return NewSupernodal() }},
 		{"lu", true, func() Solver { return NewLU() }},
 		{"cg-ic0", false, func() Solver { return NewCG() }},
 		{"cg-jacobi", false, func() Solver { return &CG{iterBase{Precond: &Jacobi{}}} }},
@@ -127,6 +128,8 @@ func BenchmarkFactorSolve(b *testing.B) {
 				switch f := s.(type) {
 				case *Cholesky:
 					b.ReportMetric(float64(f.NNZ()*12)/1e6, "factorMB")
+				case *Supernodal:
+					b.ReportMetric(float64(f.NNZ()*8)/1e6, "factorMB")
 				case *LU:
 					b.ReportMetric(float64(f.NNZ()*20/2)/1e6, "factorMB")
 				case Iterative:
