@@ -23,8 +23,8 @@ var ErrNotDefinite = errors.New("sparse: matrix is not negative definite")
 //
 // The symbolic work (AMD ordering, elimination tree, column counts) is done
 // once in Analyse; Factorize is the up-looking LDLᵀ factorisation (row k of
-// L by a sparse triangular solve over the row subtree; Davis 2006, §4.7 and
-// §4.8), which copies the values it needs from a.
+// L by a sparse triangular solve over the row subtree; Davis 2006, ch. 4),
+// which copies the values it needs from a.
 type Cholesky struct {
 	// PivotTol is the relative pivot tolerance, default DefaultPivotTol.
 	PivotTol float64

@@ -12,7 +12,7 @@ import (
 //
 // ‖A⁻¹‖₁ is estimated by Hager's method (Condition estimates, SIAM J. Sci.
 // Stat. Comput. 5, 1984) in Higham's form (FORTRAN codes for estimating the
-// one-norm of a real or complex matrix, ACM TOMS 14, 1988, Alg. 4.1): at
+// one-norm of a real or complex matrix, ACM TOMS 14, 1988): at
 // most five pairs of solves with A and Aᵀ, then one more solve with an
 // alternating-sign vector guarding against the method's known worst cases.
 // The estimate is a lower bound that is almost always within a factor 3.

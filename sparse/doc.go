@@ -27,13 +27,13 @@
 //   - Symbolic (Analyse, AnalyseWith): elimination tree by Liu's algorithm,
 //     its post-order, and column counts from the row subtrees (Davis 2006,
 //     ch. 4).
-//   - Cholesky: up-looking LDLᵀ of −PAPᵀ (Davis 2006, §4.7–4.8), for
+//   - Cholesky: up-looking LDLᵀ of −PAPᵀ (Davis 2006, ch. 4), for
 //     symmetric values. D > 0 for a dissipative network; the sign is handled
 //     inside, so callers pass J and get the solution of J·x = b.
 //   - Supernodal: the same factorisation (as L·Lᵀ of −PAPᵀ) by
 //     fundamental supernodes on the post-ordered elimination tree,
 //     left-looking with dense blocks (Ng & Peyton, SIAM J. Sci. Comput. 14,
-//     1993; Davis 2006, §9.1); two to three times faster on large factors.
+//     1993); two to three times faster on large factors.
 //   - LU: static diagonal pivoting on the same symbolic analysis (L and Uᵀ
 //     have the Cholesky pattern of A+Aᵀ), with a pivot-size and multiplier
 //     check and a fallback to PivotLU.

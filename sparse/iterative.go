@@ -113,7 +113,7 @@ func (s *iterBase) fail(name string, it int, why string) error {
 }
 
 // CG is the preconditioned conjugate gradient method (Hestenes & Stiefel
-// 1952; Saad 2003, Alg. 9.1) for symmetric negative definite A: it
+// 1952; Saad 2003, ch. 9) for symmetric negative definite A: it
 // iterates on −A·x = −b, whose matrix is positive definite, so the
 // preconditioner is built for −A. Its default preconditioner is IC(0)
 // (ILU0 on a symmetric matrix). The residual it checks is the true one,
@@ -201,7 +201,7 @@ func (s *CG) Solve(x, b []float64) error {
 }
 
 // BiCGStab is the stabilised biconjugate gradient method (van der Vorst,
-// SIAM J. Sci. Stat. Comput. 13, 1992; Saad 2003, Alg. 7.7) with right
+// SIAM J. Sci. Stat. Comput. 13, 1992; Saad 2003, ch. 7) with right
 // preconditioning, for unsymmetric A; its default preconditioner is ILU(0).
 // On a breakdown (ρ or ω zero) it restarts from the current iterate.
 type BiCGStab struct{ iterBase }

@@ -22,15 +22,18 @@ const DefaultMaxMultiplier = 1e6
 // counterpart (row k of L and column k of U by two sparse triangular solves
 // over the same row subtree). This is safe when A is diagonally dominant by
 // rows or by columns, as a thermal Jacobian is (its rows are heat balances
-// and its off-diagonal entries are conductances): no pivot can then vanish
-// and every multiplier is at most one in magnitude (Golub & Van Loan,
-// Matrix Computations, §3.4.10, for column dominance).
+// and its off-diagonal entries are conductances): Gaussian elimination then
+// keeps the dominance, so a pivot can only vanish for a singular matrix,
+// and with column dominance every multiplier is at most one in magnitude
+// (Golub & Van Loan, Matrix Computations, §3.4.10; from memory for the
+// section).
 //
-// Stability check and fallback: a pivot |u_kk| ≤ PivotTol·max_j |a_kj|
-// reports ErrSingular with its row; a multiplier larger than MaxMultiplier
-// means the diagonal pivots are unsafe for this matrix and the
-// factorisation falls back to left-looking LU with threshold partial
-// pivoting (Gilbert & Peierls 1988), see PivotLU, for that Factorize.
+// Stability check and fallback: a multiplier larger than MaxMultiplier, or
+// a pivot |u_kk| ≤ PivotTol·max_j |a_kj|, means the diagonal pivots are
+// unsafe for this matrix: that Factorize falls back to left-looking LU with
+// threshold partial pivoting (Gilbert & Peierls 1988), see PivotLU, and
+// reports ErrSingular, with the row, only if that finds no acceptable pivot
+// either. Fallbacks counts the factorisations that needed it.
 type LU struct {
 	// PivotTol is the relative pivot tolerance, default DefaultPivotTol.
 	PivotTol float64

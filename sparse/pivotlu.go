@@ -12,7 +12,7 @@ const DefaultPivotThreshold = 0.1
 
 // PivotLU is the left-looking sparse LU factorisation of Gilbert & Peierls
 // (Sparse partial pivoting in time proportional to arithmetic operations,
-// SIAM J. Sci. Stat. Comput. 9, 1988; Davis 2006, §6.3) with threshold
+// SIAM J. Sci. Stat. Comput. 9, 1988; Davis 2006, ch. 6) with threshold
 // partial pivoting: column k of L and U comes from a sparse triangular
 // solve with the columns of L found so far, whose pattern is found by a
 // depth-first search in the graph of L. It computes P·A·Q = L·U with the

@@ -45,7 +45,7 @@ func (p *Jacobi) Apply(z, r []float64) {
 
 // ILU0 is the incomplete LU factorisation with no fill, ILU(0): L and U
 // keep the pattern of A (Saad, Iterative Methods for Sparse Linear
-// Systems, 2nd ed., SIAM 2003, Alg. 10.4, the IKJ variant). On a
+// Systems, 2nd ed., SIAM 2003, ch. 10, the IKJ variant). On a
 // symmetric matrix its factors are those of the incomplete Cholesky
 // factorisation IC(0), U = D·Lᵀ, and it exists for every M-matrix
 // (Meijerink & van der Vorst, Math. Comp. 31, 1977), which −J of a

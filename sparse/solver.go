@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 )
 
 // ErrSingular is returned, wrapped with detail such as the pivot row, by
@@ -174,7 +175,7 @@ func symPattern(a *Matrix) (ptr []int, idx []int32) {
 // sortInt32 sorts a short slice by insertion, a long one by the library.
 func sortInt32(s []int32) {
 	if len(s) > 32 {
-		slicesSort(s)
+		slices.Sort(s)
 		return
 	}
 	for i := 1; i < len(s); i++ {

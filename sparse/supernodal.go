@@ -16,7 +16,7 @@ import (
 // each column j+1 that is the parent of column j and has its pattern minus
 // one entry (a fundamental supernode; Liu, Ng & Peyton, SIAM J. Matrix
 // Anal. Appl. 14, 1993). Factorize keeps each supernode as one dense
-// column-major block and works left-looking (Davis 2006, §9.1; Ng & Peyton,
+// column-major block and works left-looking (Ng & Peyton,
 // SIAM J. Sci. Comput. 14, 1993): every earlier supernode whose pattern
 // meets the columns of the current one subtracts its dense outer product,
 // found through linked lists, before the block is factorised densely.

@@ -1,5 +1,0 @@
-package sparse
-
-import "slices"
-
-func slicesSort(s []int32) { slices.Sort(s) }
