@@ -133,7 +133,7 @@ func (f *Supernodal) UseSymbolic(s *Symbolic) {
 	f.kptr = make([]int, ns)
 	f.rel = make([]int, n)
 	f.work = make([]float64, n)
-	f.tmp = make([]float64, n)
+	f.tmp = make([]float64, 4*n)
 	f.ok = false
 }
 
@@ -204,8 +204,44 @@ func (f *Supernodal) Factorize(a *Matrix) error {
 			for i := p1; i < nrK; i++ {
 				rel[i-p1] = f.relpos[rowsK[i]]
 			}
-			for q := p1; q < p2; q++ {
-				// t = L_K(q:, :)·L_K(q, :)ᵀ densely, then one scatter.
+			// For each row q of K in J's columns, t = L_K(q:, :)·L_K(q, :)ᵀ
+			// densely, then one scatter into J; four rows at a time, so that
+			// each column of K is read once per four.
+			q := p1
+			for ; q+4 <= p2; q += 4 {
+				m := nrK - q
+				t := f.tmp[:4*m]
+				clear(t)
+				t0, t1, t2, t3 := t[:m], t[m:2*m], t[2*m:3*m], t[3*m:4*m]
+				for c := 0; c < ncK; c++ {
+					col := blkK[nrK*c+q : nrK*(c+1)]
+					s0, s1, s2, s3 := col[0], col[1], col[2], col[3]
+					if s0 == 0 && s1 == 0 && s2 == 0 && s3 == 0 {
+						continue
+					}
+					col = col[:m]
+					t0 := t0[:m]
+					t1 := t1[:m]
+					t2 := t2[:m]
+					t3 := t3[:m]
+					for i, v := range col {
+						t0[i] += v * s0
+						t1[i] += v * s1
+						t2[i] += v * s2
+						t3[i] += v * s3
+					}
+				}
+				for r, tr := range [4][]float64{t0, t1[1:], t2[2:], t3[3:]} {
+					cj := int(rowsK[q+r]) - fc
+					dst := blk[nr*cj : nr*(cj+1)]
+					rq := rel[q+r-p1:]
+					rq = rq[:len(tr)]
+					for i, v := range tr {
+						dst[rq[i]] -= v
+					}
+				}
+			}
+			for ; q < p2; q++ {
 				t := f.tmp[:nrK-q]
 				clear(t)
 				for c := 0; c < ncK; c++ {
@@ -235,33 +271,57 @@ func (f *Supernodal) Factorize(a *Matrix) error {
 			}
 			K = nextK
 		}
-		// Dense factorisation of the block.
-		for c := 0; c < nc; c++ {
-			col := blk[nr*c : nr*(c+1)]
-			d := col[c]
-			scale := f.scales[s.Perm[fc+c]]
-			if !(d > tol*scale) {
-				if d < -tol*scale {
-					return fmt.Errorf("%w: pivot %.3g at row %d", ErrNotDefinite, -d, s.Perm[fc+c])
+		// Dense factorisation of the block, by panels of four columns:
+		// factor the panel, then subtract its rank-four product from the
+		// columns to its right, writing each of them once per panel.
+		for c0 := 0; c0 < nc; c0 += 4 {
+			c1 := min(c0+4, nc)
+			for c := c0; c < c1; c++ {
+				col := blk[nr*c : nr*(c+1)]
+				d := col[c]
+				scale := f.scales[s.Perm[fc+c]]
+				if !(d > tol*scale) {
+					if d < -tol*scale {
+						return fmt.Errorf("%w: pivot %.3g at row %d", ErrNotDefinite, -d, s.Perm[fc+c])
+					}
+					return fmt.Errorf("%w: pivot %.3g at row %d (row scale %.3g)", ErrSingular, -d, s.Perm[fc+c], scale)
 				}
-				return fmt.Errorf("%w: pivot %.3g at row %d (row scale %.3g)", ErrSingular, -d, s.Perm[fc+c], scale)
+				ljj := math.Sqrt(d)
+				col[c] = ljj
+				inv := 1 / ljj
+				for i := c + 1; i < nr; i++ {
+					col[i] *= inv
+				}
+				for c2 := c + 1; c2 < c1; c2++ {
+					sv := col[c2]
+					dst := blk[nr*c2+c2 : nr*(c2+1)]
+					src := col[c2:]
+					src = src[:len(dst)]
+					for i, v := range src {
+						dst[i] -= v * sv
+					}
+				}
 			}
-			ljj := math.Sqrt(d)
-			col[c] = ljj
-			inv := 1 / ljj
-			for i := c + 1; i < nr; i++ {
-				col[i] *= inv
-			}
-			for c2 := c + 1; c2 < nc; c2++ {
-				sv := col[c2]
-				if sv == 0 {
+			for c2 := c1; c2 < nc; c2++ {
+				dst := blk[nr*c2+c2 : nr*(c2+1)]
+				m := len(dst)
+				if c1-c0 == 4 {
+					a0 := blk[nr*c0+c2 : nr*(c0+1)][:m]
+					a1 := blk[nr*(c0+1)+c2 : nr*(c0+2)][:m]
+					a2 := blk[nr*(c0+2)+c2 : nr*(c0+3)][:m]
+					a3 := blk[nr*(c0+3)+c2 : nr*(c0+4)][:m]
+					s0, s1, s2, s3 := a0[0], a1[0], a2[0], a3[0]
+					for i := range dst {
+						dst[i] -= a0[i]*s0 + a1[i]*s1 + a2[i]*s2 + a3[i]*s3
+					}
 					continue
 				}
-				dst := blk[nr*c2+c2 : nr*(c2+1)]
-				src := col[c2:]
-				src = src[:len(dst)]
-				for i, v := range src {
-					dst[i] -= v * sv
+				for c := c0; c < c1; c++ {
+					src := blk[nr*c+c2 : nr*(c+1)][:m]
+					sv := src[0]
+					for i, v := range src {
+						dst[i] -= v * sv
+					}
 				}
 			}
 		}
