@@ -16,11 +16,12 @@ const DefaultDirectFloor = 1e8
 // multigrid-preconditioned solve (set-up included) in units of
 // 3·nnz(A) + 10·n operations, about one matrix-vector product with the
 // vector updates of one Krylov iteration, against the multiply-adds of the
-// supernodal factorisation. Measured (processor time): on the 2-D grid of
-// 1e5 unknowns the factorisation (2.6e8 multiply-adds) took 0.16–0.18 s and
-// CG with multigrid 0.2–0.5 s; on the 3-D grid of 1e4 unknowns (3.1e8)
-// 0.17–0.19 s against 0.05–0.11 s. The two cases bound the weight to
-// 105–940; 300 sits between.
+// supernodal factorisation. Measured (processor time, the benchmarks of
+// this package): on the 2-D grid of 1e5 unknowns (F = 2.6e8, 3·nnz + 10·n
+// = 2.5e6) the factorisation and solve took 0.14 s and CG with multigrid
+// 0.38 s, a break-even weight of 285; on the 3-D grid of 1e4 unknowns
+// (F = 3.1e8, 3.3e5) 0.13 s against 0.054 s, a break-even weight of 390.
+// The default sits between.
 const DefaultIterativeWeight = 300.0
 
 // symmetryTol is the relative tolerance of the value-symmetry test.
