@@ -77,7 +77,7 @@ var j1Zeros = besselJ1Zeros(seriesTerms)
 // spreadingSeries is the exact solution of a uniform flux over a disk of
 // radius a centred on a disk of radius b, thickness t, adiabatic rim,
 // cooled back of Biot number Bi (separation of variables; the form of
-// Song, Lee & Au 1994 and Yovanovich et al. 1999):
+// Song, Lee & Au 1994 and Yovanovich et al. 1999, citations from memory):
 // ψ_avg = ετ/√π + 4/(√π·ε)·Σ J₁²(δₙε)·Φₙ/(δₙ³·J₀²(δₙ)),
 // ψ_max = ετ/√π + 2/√π·Σ J₁(δₙε)·Φₙ/(δₙ²·J₀²(δₙ)), δₙ the zeros of J₁ and
 // Φₙ the Φ of the closed form with λ → δₙ; R = ψ/(√π·k·a).

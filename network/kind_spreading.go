@@ -19,8 +19,8 @@ func init() {
 			"point of the source instead of its mean temperature. The closed form of Lee et al. " +
 			"is reported beside it.",
 		sources: []string{
-			"Song, Lee & Au, Closed-form equation for thermal constriction/spreading resistances with variable resistance boundary condition, IEPS 1994 (series solution)",
-			"Lee, Song, Au & Moran, Constriction/spreading resistance model for electronics packaging, ASME/JSME Thermal Engineering Conference 1995 (closed form)",
+			"Song, Lee & Au, Closed-form equation for thermal constriction/spreading resistances with variable resistance boundary condition, IEPS 1994 (series solution; citation from memory)",
+			"Lee, Song, Au & Moran, Constriction/spreading resistance model for electronics packaging, ASME/JSME Thermal Engineering Conference 1995 (closed form; formula from memory, checked against the series in the tests)",
 		},
 		example: "{id: lid-spread, kind: spreading, from: soc-case, to: lid, source_width: 15 mm, source_length: 15 mm,\n" +
 			"   plate_width: 120 mm, plate_length: 90 mm, thickness: 3 mm, material: aluminium-diecast, sink_coefficient: 10 W/m2/K}",
