@@ -33,6 +33,7 @@ const (
 	HeatCapacity                        // J/K
 	DynamicViscosity                    // Pa s
 	Acceleration                        // m/s2
+	RotationalSpeed                     // 1/s (revolutions per second): "3000 rpm" is 50
 )
 
 // kindInfo describes a Kind: its name, its SI unit, a few valid units, a
@@ -71,6 +72,7 @@ var kinds = [...]kindInfo{
 	HeatCapacity:            {"heat capacity", "J/K", "J/K, kJ/K", "50 J/K", dimHeatCapacity},
 	DynamicViscosity:        {"dynamic viscosity", "Pa s", "Pa s, mPa s, kg/(m s)", "1.8e-5 Pa s", dimDynamicViscosity},
 	Acceleration:            {"acceleration", "m/s2", "m/s2, ft/s2", "9.81 m/s2", dimAcceleration},
+	RotationalSpeed:         {"rotational speed", "1/s", "rpm, 1/s", "3000 rpm", dimFrequency},
 }
 
 // info returns the description of k and whether k is one of the declared
