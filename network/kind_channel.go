@@ -69,8 +69,12 @@ type Channel struct {
 func (c *Channel) air(l *LinkSpec) (string, string, float64) { return l.Others[0], l.To, c.MassFlow }
 
 func (c *Channel) element(e linkEnv) (elements.Element, error) {
-	return &elements.Channel{Wall: e.from, Inlet: e.others[0], Outlet: e.to, Flow: e.givenFlow(c.MassFlow),
-		Geometry: c.Geometry, Options: c.Options, Upstream: c.Upstream}, nil
+	f := e.givenFlow(c.MassFlow)
+	el := &elements.Channel{Wall: e.from, Inlet: e.others[0], Outlet: e.to, Flow: f,
+		Geometry: c.Geometry, Options: c.Options, Upstream: c.Upstream}
+	// A given flow between nodes of a solved air path adds its mass to
+	// their balances (airflow.go).
+	return e.carried(el, e.others[0], e.to, f), nil
 }
 
 // The largest counts of fins and of parallel passages a link takes: far

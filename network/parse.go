@@ -127,8 +127,8 @@ func (r *reader) readAmbient(top *object, m *Model) {
 
 var (
 	solidKeys = []string{"id", "kind", "power", "limit", "note"}
-	fixedKeys = []string{"id", "kind", "temperature", "note"}
-	airKeys   = []string{"id", "kind", "limit", "note"}
+	fixedKeys = []string{"id", "kind", "temperature", "note", "pressure"}
+	airKeys   = []string{"id", "kind", "limit", "note", "height"}
 	nodeKinds = []string{string(Solid), string(Fixed), string(Air)}
 )
 
@@ -195,6 +195,9 @@ func (r *reader) readNodes(n *yaml.Node, m *Model, ids map[string]nodeRef) []Nod
 			o.checkKeys(append(append(airKeys, "power"), airCapacityKeys...), "an air node")
 			spec.Limit, spec.HasLimit = o.temperature("limit", false)
 			spec.Capacity = readAirCapacity(o, m)
+			if o.has("height") {
+				spec.Height, _ = o.quantity("height", units.Length)
+			}
 		case Fixed:
 			if o.has("power") {
 				r.addf(o.values["power"], o.field("power"), "a fixed-temperature node cannot take a heat input (its temperature is given); put the heat on a solid node linked to it")
@@ -204,6 +207,9 @@ func (r *reader) readNodes(n *yaml.Node, m *Model, ids map[string]nodeRef) []Nod
 			}
 			o.checkKeys(append(fixedKeys, "power", "limit"), "a fixed node")
 			spec.Temperature, _ = o.temperature("temperature", true)
+			if o.has("pressure") {
+				spec.Pressure, _ = o.quantity("pressure", units.Pressure)
+			}
 		}
 		if okID {
 			out = append(out, spec)
