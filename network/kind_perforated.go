@@ -12,9 +12,9 @@ func init() {
 		help: "Air flows through a perforated plate or grille at the flow the solve finds. Its loss " +
 			"coefficient on the face velocity follows Idelchik's relation for thick-edged " +
 			"perforated plates from the open-area ratio f, the plate thickness l and the hole " +
-			"diameter d: ζ = [0.5(1−f)^0.75 + τ(1−f)^1.375 + (1−f)² + λl/d]/f², which for a thin " +
-			"plate tends to the sharp-edged orifice (1 + 0.707√(1−f) − f)²/f². The report gives ζ " +
-			"and the face velocity.",
+			"diameter d, ζ = [0.5(1−f)^0.75 + τ(1−f)^1.375 + (1−f)² + λl/d]/f²; a thin plate " +
+			"(l/d ≤ 0.015, or no thickness given) takes the sharp-edged orifice " +
+			"(1 + 0.707√(1−f) − f)²/f². The report gives ζ (K) and the face velocity.",
 		sources: []string{"Idelchik, Handbook of Hydraulic Resistance, 3rd ed., diagrams 8-1 and 8-3 (from memory)"},
 		example: "{id: front-grille, kind: perforated, from: ambient, to: intake, area: 40 cm2, open_ratio: 0.45, thickness: 1 mm, hole_diameter: 3 mm}",
 		keys: []keySpec{
