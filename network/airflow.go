@@ -32,12 +32,23 @@ func (l *LinkSpec) solvedBranch() bool {
 	return ok && b.solved()
 }
 
+// branchEnds returns the nodes the air of link l runs between: a
+// channel's inlet and outlet, or its from and to.
+func (l *LinkSpec) branchEnds() (up, down string) {
+	if c, ok := l.Params.(airCarrier); ok {
+		up, down, _ = c.air(l)
+		return up, down
+	}
+	return l.From, l.To
+}
+
 // solvedAirNodes returns the nodes at the ends of solved branches.
 func (m *Model) solvedAirNodes() map[string]bool {
 	out := map[string]bool{}
 	for i := range m.Links {
 		if l := &m.Links[i]; l.solvedBranch() {
-			out[l.From], out[l.To] = true, true
+			up, down := l.branchEnds()
+			out[up], out[down] = true, true
 		}
 	}
 	return out
@@ -52,7 +63,8 @@ func (net *Network) assignPressures() {
 		if !l.solvedBranch() {
 			continue
 		}
-		for _, id := range []string{l.From, l.To} {
+		up, down := l.branchEnds()
+		for _, id := range []string{up, down} {
 			n := net.Index[id]
 			if _, ok := net.pvar[n]; ok {
 				continue
@@ -84,6 +96,29 @@ func (e linkEnv) carried(el elements.Element, up, down, flow int) elements.Eleme
 		return el
 	}
 	return elements.Combine(el, elements.NewAirway(elements.Airway{From: up, To: down, PFrom: pu, PTo: pd, Flow: flow}))
+}
+
+// solvedFlow reports whether a channel's flow is the word solved.
+func solvedFlow(o *object) bool {
+	v, ok := o.values["flow"]
+	return ok && v.Kind == yaml.ScalarNode && v.Value == "solved" && !o.has("mass_flow")
+}
+
+func (c *Channel) solved() bool { return c.Solved }
+
+// solvedElement builds channels whose flow is solved for: the Channel's
+// heat transfer and the airway from inlet to outlet with the channels'
+// pressure drop as its law.
+func (c *Channel) solvedElement(e linkEnv) (elements.Element, error) {
+	law := &elements.ChannelFlow{Geometry: c.Geometry, Options: c.Options, Upstream: c.Upstream}
+	in := e.others[0]
+	aw, flow, err := branch{}.airway(e, law, in, e.to)
+	if err != nil {
+		return nil, err
+	}
+	ch := &elements.Channel{Wall: e.from, Inlet: in, Outlet: e.to, Flow: flow,
+		Geometry: c.Geometry, Options: c.Options, Upstream: c.Upstream}
+	return elements.Combine(ch, aw), nil
 }
 
 // branch is what every branch kind's parameters share: the opening's
@@ -118,6 +153,16 @@ var branchEnds = []endRule{{"from", "where the air comes from", airwayKinds}, {"
 // carries the air's heat, and the airway with its mass and momentum
 // balances.
 func (b branch) element(e linkEnv, law elements.FlowLaw) (elements.Element, error) {
+	aw, flow, err := b.airway(e, law, e.from, e.to)
+	if err != nil {
+		return nil, err
+	}
+	return elements.Combine(&elements.Stream{Up: e.from, Down: e.to, Flow: flow, Reversible: true}, aw), nil
+}
+
+// airway builds the airway of a solved branch from node a to node b, with
+// its flow variable.
+func (b branch) airway(e linkEnv, law elements.FlowLaw, a, bb int) (*elements.Airway, int, error) {
 	net := e.net
 	rho0 := air.Density(dual.C(net.Env.AmbientT), net.Env.Pressure).V
 	start := 1e-3
@@ -125,8 +170,8 @@ func (b branch) element(e linkEnv, law elements.FlowLaw) (elements.Element, erro
 		start = s.StartFlow(rho0)
 	}
 	flow := net.addVar(Variable{Kind: MassFlowVar, Owner: e.link, Value: start})
-	nf, nt := &net.Nodes[e.from], &net.Nodes[e.to]
-	w := elements.Airway{From: e.from, To: e.to, PFrom: e.pressure(e.from), PTo: e.pressure(e.to), Flow: flow, Law: law,
+	nf, nt := &net.Nodes[a], &net.Nodes[bb]
+	w := elements.Airway{From: a, To: bb, PFrom: e.pressure(a), PTo: e.pressure(bb), Flow: flow, Law: law,
 		ZFrom: nf.Height, ZTo: nt.Height, ColumnFrom: nf.Kind == Air, ColumnTo: nt.Kind == Air}
 	switch {
 	case b.HasElevation:
@@ -139,9 +184,9 @@ func (b branch) element(e linkEnv, law elements.FlowLaw) (elements.Element, erro
 		w.ZOpen = w.ZTo
 	}
 	if w.PFrom < 0 || w.PTo < 0 {
-		return nil, fmt.Errorf("internal: branch ends without pressures")
+		return nil, 0, fmt.Errorf("internal: branch ends without pressures")
 	}
-	return elements.Combine(&elements.Stream{Up: e.from, Down: e.to, Flow: flow, Reversible: true}, elements.NewAirway(w)), nil
+	return elements.NewAirway(w), flow, nil
 }
 
 // airwayOf returns the airway of a link's element, or nil.

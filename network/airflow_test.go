@@ -278,3 +278,55 @@ links:
 		t.Errorf("a at %.9g K, want the mixed temperature %.9g K", ta, mix)
 	}
 }
+
+// channelModel drives air through circular passages from a fixed node at
+// the given pressure, with no heat, out through an outlet air node and a
+// wide-open loss (its drop below 1e-4 of the channels').
+func channelModel(dp, d, length string, count int) string {
+	return fmt.Sprintf(`
+ambient: {temperature: 20 degC}
+nodes:
+  - {id: supply, kind: fixed, temperature: 20 degC, pressure: %s}
+  - {id: block, kind: fixed, temperature: 20 degC}
+  - {id: out, kind: air}
+links:
+  - {id: holes, kind: channel, from: block, inlet: supply, to: out, flow: solved, shape: circular, diameter: %s, length: %s, count: %d}
+  - {id: open, kind: loss, from: out, to: ambient, coefficient: 1, area: 1 m2}
+`, dp, d, length, count)
+}
+
+// Laminar: 20 Pa across 0.5 m of 1 mm tubes. Fully developed laminar flow
+// in a tube has f·Re = 64 (Shah & London 1978; Hagen–Poiseuille), so
+// V = Δp·D²/(32·μ·L) (by hand); entry effects and the entry and exit
+// losses add under 0.1 % at L/D = 500 and Re ≈ 5.
+func TestLaminarChannelAgainstPoiseuille(t *testing.T) {
+	sol := solveAir(t, channelModel("20 Pa", "1 mm", "0.5 m", 4))
+	props := air.At(dual.C(293.15), 101325)
+	v := 20 * 1e-6 / (32 * props.Mu.V * 0.5)
+	want := 4 * props.Rho.V * v * math.Pi / 4 * 1e-6
+	if got := branchOf(t, sol, "holes").MassFlow; math.Abs(got-want) > 2e-3*want {
+		t.Errorf("laminar: %.6g kg/s, want %.6g kg/s (Poiseuille)", got, want)
+	}
+}
+
+// Turbulent: 200 Pa across 3 m of a 30 mm tube. By hand: Colebrook's
+// smooth-pipe friction 1/√f = −2·log10(2.51/(Re·√f)) with
+// Δp = (f·L/D + K_entry + K_exit)·ρV²/2, sharp entry 0.5 and exit 1.0
+// (Kays & London; Idelchik), iterated to a fixed point. The channel uses
+// Churchill (1977), which follows Colebrook within about 1 %.
+func TestTurbulentChannelAgainstColebrook(t *testing.T) {
+	sol := solveAir(t, channelModel("200 Pa", "30 mm", "3 m", 1))
+	props := air.At(dual.C(293.15), 101325)
+	rho, mu := props.Rho.V, props.Mu.V
+	v, f := 8.0, 0.03
+	for i := 0; i < 200; i++ {
+		re := rho * v * 0.03 / mu
+		f = math.Pow(-2*math.Log10(2.51/(re*math.Sqrt(f))), -2)
+		v = math.Sqrt(200 / ((f*100 + 1.5) * rho / 2))
+	}
+	want := rho * v * math.Pi / 4 * 0.03 * 0.03
+	got := branchOf(t, sol, "holes").MassFlow
+	if math.Abs(got-want) > 0.015*want {
+		t.Errorf("turbulent: %.6g kg/s, want %.6g kg/s (Colebrook, Re %.0f)", got, want, rho*v*0.03/mu)
+	}
+}
