@@ -127,6 +127,7 @@ type Operating struct {
 	InletDensity float64 // kg/m³
 	FreeDelivery float64 // at this speed, m³/s
 	Slope        float64 // dΔp/dQ at the operating point, Pa/(m³/s)
+	Stopped      bool
 	Warnings     []string
 }
 
@@ -139,7 +140,7 @@ func (f *Fan) OperatingPoint(m, tFrom, p float64) Operating {
 	op := Operating{VolumeFlow: q, InletDensity: rho, Speed: f.Speed, FreeDelivery: f.free * s}
 	if f.Stopped {
 		op.Pressure = f.StoppedLoss.Rise(dual.C(m), dual.C(tFrom), dual.C(tFrom), p).V
-		op.Speed = 0
+		op.Speed, op.Stopped = 0, true
 		op.Warnings = append(op.Warnings, "the fan is stopped: it is a loss in the air path")
 		return op
 	}
