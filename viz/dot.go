@@ -88,6 +88,12 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 			qMax = math.Max(qMax, math.Abs(p.Heat))
 		}
 	}
+	flows := map[string]float64{} // solved air flows by link, m³/s, for the labels of air paths
+	for _, b := range sol.Branches {
+		if b.Solved {
+			flows[b.Link] = b.VolumeFlow
+		}
+	}
 	for _, l := range sol.Links {
 		for k, p := range l.Paths {
 			from, to, heat := p.From, p.To, p.Heat
@@ -104,7 +110,22 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 					tip = fmt.Sprintf("%s: air from %s", l.ID, p.From)
 				}
 			}
-			d.check(g.AddEdge(q(from), q(to), true, edgeAttrs(heat, qMax, tip, colour)))
+			f, solved := flows[l.ID]
+			if solved && p.Carried {
+				// A solved air path points the way the air goes.
+				from, to, heat = p.From, p.To, p.Heat
+				if f < 0 {
+					from, to, heat = to, from, -heat
+				}
+				if math.Abs(heat) < 1e-9*qMax {
+					heat = 0
+				}
+			}
+			attrs := edgeAttrs(math.Abs(heat), qMax, tip, colour)
+			if solved && p.Carried {
+				attrs["label"] = q(fmt.Sprintf("%.3g W, %.3g L/s", heat, math.Abs(f)*1e3))
+			}
+			d.check(g.AddEdge(q(from), q(to), true, attrs))
 		}
 	}
 	d.legend(colouring, tMin, tMax)
