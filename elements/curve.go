@@ -29,7 +29,7 @@ func NewMonotoneCurve(x, y []float64) (MonotoneCurve, error) {
 	}
 	for i := 1; i < n; i++ {
 		if !(x[i] > x[i-1]) {
-			return MonotoneCurve{}, fmt.Errorf("the flows of a curve must increase from point to point (point %d: %g after %g)", i+1, x[i], x[i-1])
+			return MonotoneCurve{}, fmt.Errorf("the flows of a curve must increase from point to point (point %d: %.4g after %.4g, in SI units)", i+1, x[i], x[i-1])
 		}
 	}
 	d := make([]float64, n-1) // secant slopes

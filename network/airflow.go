@@ -147,7 +147,7 @@ func readBranch(o *object) (branch, bool) {
 var elevationKey = keySpec{name: "elevation", dim: units.Length, help: "height of the opening, for the stack effect; default: the mean height of its air ends"}
 
 // branchEnds are the ends every branch kind takes.
-var branchEnds = []endRule{{"from", "where the air comes from", airwayKinds}, {"to", "where the air goes", airwayKinds}}
+var branchEnds = []endRule{{"from", "the air's origin", airwayKinds}, {"to", "the air's destination", airwayKinds}}
 
 // element builds a solved branch with the law: a reversible stream that
 // carries the air's heat, and the airway with its mass and momentum
@@ -313,7 +313,7 @@ func readTable(o *object, key string, xk, yk units.Kind, need bool) (xs, ys []fl
 	for i, it := range items {
 		it = deref(it)
 		if it.Kind != yaml.SequenceNode || len(it.Content) != 2 {
-			o.r.addf(it, fmt.Sprintf("%s[%d]", o.field(key), i), "expected a [%s, %s] pair such as [%s, %s], got %s", xk, yk, example(xk), example(yk), describe(it))
+			o.r.addf(it, fmt.Sprintf("%s[%d]", o.field(key), i), "expected a [%s, %s] pair such as [10 CFM, 50 Pa], got %s", xk, yk, describe(it))
 			ok = false
 			continue
 		}
@@ -349,13 +349,19 @@ func gauge(o *object, key string) (float64, bool) {
 }
 
 // startFlows sets where the solve starts the flows of passive branches:
-// at the largest start of any running fan (half its free delivery), so
-// that a chain of parts in series starts with the same flow throughout
-// and each quadratic loss is met from above, where Newton's method
-// approaches its root without overshoot. Without fans, each branch starts
-// at its own estimate (1 m/s through an opening, say).
+// at the largest start of any running fan (half its free delivery) or the
+// largest given flow, so that a chain of parts in series starts with the
+// same flow throughout and each quadratic loss is met from above, where
+// Newton's method approaches its root without overshoot. Without fans or
+// given flows, each branch starts at its own estimate (1 m/s through an
+// opening, say).
 func (net *Network) startFlows() {
 	fan := 0.0
+	for _, v := range net.Vars {
+		if v.Kind == MassFlowVar && v.Given {
+			fan = math.Max(fan, math.Abs(v.Value))
+		}
+	}
 	for _, l := range net.Links {
 		if w := airwayOf(l.Element); w != nil {
 			if f, ok := w.Law.(*elements.Fan); ok && !f.Stopped {
@@ -373,4 +379,56 @@ func (net *Network) startFlows() {
 			}
 		}
 	}
+}
+
+// closedAir reports every group of air nodes that solved branches join to
+// each other but to no fixed node or ambient: with no given pressure
+// among them, their pressures would be undetermined (any constant could
+// be added to all of them).
+func (m *Model) closedAir() Problems {
+	parent := map[string]string{}
+	find := func(a string) string {
+		for parent[a] != a {
+			parent[a] = parent[parent[a]]
+			a = parent[a]
+		}
+		return a
+	}
+	kind := map[string]NodeKind{AmbientID: Fixed}
+	line := map[string]int{}
+	for _, n := range m.Nodes {
+		kind[n.ID], line[n.ID] = n.Kind, n.Line
+	}
+	for i := range m.Links {
+		l := &m.Links[i]
+		if !l.solvedBranch() {
+			continue
+		}
+		up, down := l.branchEnds()
+		for _, id := range []string{up, down} {
+			if _, ok := parent[id]; !ok {
+				parent[id] = id
+			}
+		}
+		parent[find(up)] = find(down)
+	}
+	open := map[string]bool{}
+	for id := range parent {
+		if kind[id] == Fixed {
+			open[find(id)] = true
+		}
+	}
+	groups := map[string][]string{}
+	for id := range parent {
+		if r := find(id); !open[r] {
+			groups[r] = append(groups[r], id)
+		}
+	}
+	var ps Problems
+	for _, g := range groups {
+		sort.Slice(g, func(a, b int) bool { return line[g[a]] < line[g[b]] })
+		ps = append(ps, Problem{File: m.File, Line: line[g[0]], Field: "nodes[" + g[0] + "]",
+			Message: fmt.Sprintf("the air of %s is joined by fans and losses to no fixed node or ambient, so its pressure is undetermined (open the path to ambient, e.g. with a loss link, or give a fixed node a pressure)", quoteList(g))})
+	}
+	return ps
 }

@@ -330,3 +330,33 @@ func TestTurbulentChannelAgainstColebrook(t *testing.T) {
 		t.Errorf("turbulent: %.6g kg/s, want %.6g kg/s (Colebrook, Re %.0f)", got, want, rho*v*0.03/mu)
 	}
 }
+
+// A given flow mixes with solved ones: 10 L/s of ambient air blown in at a
+// stated flow must leave through a vent whose flow is solved for; the box
+// then stands at the vent's drop, Δp = K·ṁ²/(2ρA²) with ρ the mean of the
+// box air's and the room's densities (the loss coefficient's definition).
+func TestGivenFlowMixesWithSolved(t *testing.T) {
+	sol := solveAir(t, `
+ambient: {temperature: 20 degC}
+nodes:
+  - {id: board, power: 30 W}
+  - {id: box, kind: air}
+links:
+  - {kind: convection, from: board, to: box, coefficient: 20 W/m2/K, area: 0.05 m2}
+  - {id: blow, kind: stream, from: ambient, to: box, flow: 10 L/s}
+  - {id: vent, kind: loss, from: box, to: ambient, coefficient: 2, area: 10 cm2}
+`)
+	m := 10e-3 * rho20
+	v := branchOf(t, sol, "vent")
+	if math.Abs(v.MassFlow-m) > 1e-12 {
+		t.Errorf("vent %.12g kg/s, want the given %.12g kg/s", v.MassFlow, m)
+	}
+	tb := nodeResult(t, sol, "box").Temperature
+	rho := (rho20 + air.Density(dual.C(tb), 101325).V) / 2
+	if want := 2 * m * m / (2 * rho * 1e-6); math.Abs(v.PressureFrom-want) > 1e-6*want {
+		t.Errorf("box at %.8g Pa, want %.8g Pa", v.PressureFrom, want)
+	}
+	if g := branchOf(t, sol, "blow"); g.Solved || math.Abs(g.MassFlow-m) > 1e-15 {
+		t.Errorf("given stream: %+v", g)
+	}
+}

@@ -83,6 +83,7 @@ func Parse(file string, data []byte) (*Model, error) {
 	if !r.broken {
 		r.problems = append(r.problems, m.isolated()...)
 		r.problems = append(r.problems, m.unbalancedAir()...)
+		r.problems = append(r.problems, m.closedAir()...)
 	}
 	if len(r.problems) > 0 {
 		return nil, r.finish()
