@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"github.com/heatgraph/heatgraph/elements/dual"
+	"github.com/heatgraph/heatgraph/elements/duct"
 	"gonum.org/v1/gonum/diff/fd"
 	"gonum.org/v1/gonum/mat"
 )
@@ -77,7 +78,16 @@ func testLaws(t *testing.T) map[string]FlowLaw {
 	if err != nil {
 		t.Fatal(err)
 	}
-	return map[string]FlowLaw{"loss": loss, "resistance": &FlowResistance{R: 2e5}, "table": table, "fan": fan, "stopped fan": stopped}
+	holes, err := Passages(duct.Duct{Shape: duct.Circular, Diameter: 4e-3, Length: 0.05}, 40)
+	if err != nil {
+		t.Fatal(err)
+	}
+	sink, err := PlateFinSink(12, 1e-3, 20e-3, 50e-3, 60e-3, 200)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return map[string]FlowLaw{"loss": loss, "resistance": &FlowResistance{R: 2e5}, "table": table, "fan": fan, "stopped fan": stopped,
+		"channels": &ChannelFlow{Geometry: holes}, "heat sink": &ChannelFlow{Geometry: sink, Upstream: 0.02}}
 }
 
 // Every law's branch, forward, reversed, near zero and beyond the ends of
