@@ -293,13 +293,20 @@ func (c *Combined) Paths(s *State) []Path {
 	return []Path{{From: rows[0], To: rows[1], Heat: -l.R[0]}}
 }
 
-// Report joins the parts' reports.
+// Report joins the parts' reports; a detail that an earlier part gave is
+// not repeated.
 func (c *Combined) Report(s *State) Report {
 	var rep Report
+	seen := map[string]bool{}
 	for _, p := range c.Parts {
 		if r, ok := p.(Reporter); ok {
 			more := r.Report(s)
-			rep.Details = append(rep.Details, more.Details...)
+			for _, d := range more.Details {
+				if !seen[d.Name] {
+					seen[d.Name] = true
+					rep.Details = append(rep.Details, d)
+				}
+			}
 			rep.Warnings = append(rep.Warnings, more.Warnings...)
 		}
 	}

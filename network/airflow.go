@@ -348,37 +348,66 @@ func gauge(o *object, key string) (float64, bool) {
 	return x, ok
 }
 
-// startFlows sets where the solve starts the flows of passive branches:
-// at the largest start of any running fan (half its free delivery) or the
-// largest given flow, so that a chain of parts in series starts with the
-// same flow throughout and each quadratic loss is met from above, where
-// Newton's method approaches its root without overshoot. Without fans or
-// given flows, each branch starts at its own estimate (1 m/s through an
-// opening, say).
+// startFlows sets where the solve starts the flows of passive branches.
+// With running fans, each starts at the flow at which its own drop is half
+// the largest shut-off pressure, but at most the largest fan's start (half
+// its free delivery): parts in series then start near the fan's flow, a
+// narrow bypass at the little it passes, so that no quadratic loss starts
+// far from its share. With given flows and no fans, each starts at the
+// largest given flow. Otherwise each starts at its own estimate (1 m/s
+// through an opening, say).
 func (net *Network) startFlows() {
-	fan := 0.0
+	fan, given, shut := 0.0, 0.0, 0.0
 	for _, v := range net.Vars {
 		if v.Kind == MassFlowVar && v.Given {
-			fan = math.Max(fan, math.Abs(v.Value))
+			given = math.Max(given, math.Abs(v.Value))
 		}
 	}
+	t0 := dual.C(net.Env.AmbientT)
+	p := net.Env.Pressure
 	for _, l := range net.Links {
 		if w := airwayOf(l.Element); w != nil {
 			if f, ok := w.Law.(*elements.Fan); ok && !f.Stopped {
 				fan = math.Max(fan, net.Vars[w.Flow].Value)
+				shut = math.Max(shut, f.Rise(dual.C(0), t0, t0, p).V)
 			}
 		}
-	}
-	if fan == 0 {
-		return
 	}
 	for _, l := range net.Links {
-		if w := airwayOf(l.Element); w != nil && w.Law != nil {
-			if f, ok := w.Law.(*elements.Fan); !ok || f.Stopped {
-				net.Vars[w.Flow].Value = fan
-			}
+		w := airwayOf(l.Element)
+		if w == nil || w.Law == nil {
+			continue
+		}
+		if f, ok := w.Law.(*elements.Fan); ok && !f.Stopped {
+			continue
+		}
+		switch {
+		case fan > 0 && shut > 0:
+			net.Vars[w.Flow].Value = math.Min(flowAtDrop(w.Law, shut/2, t0, p), fan)
+		case given > 0:
+			net.Vars[w.Flow].Value = given
 		}
 	}
+}
+
+// flowAtDrop returns the forward flow at which a passive law's drop is dp,
+// by bisection (a passive drop rises with the flow).
+func flowAtDrop(law elements.FlowLaw, dp float64, t0 dual.Num, p float64) float64 {
+	drop := func(m float64) float64 { return -law.Rise(dual.C(m), t0, t0, p).V }
+	hi := 1e-4
+	for i := 0; i < 60 && drop(hi) < dp; i++ {
+		hi *= 2
+	}
+	lo := 0.0
+	for i := 0; i < 60; i++ {
+		mid := (lo + hi) / 2
+		if drop(mid) < dp {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return (lo + hi) / 2
 }
 
 // closedAir reports every group of air nodes that solved branches join to

@@ -360,3 +360,29 @@ links:
 		t.Errorf("given stream: %+v", g)
 	}
 }
+
+// A bypass in parallel with a part: two losses between the same two
+// nodes see the same Δp, so ṁ ∝ A/√K and the split is
+// ṁ₁/ṁ₂ = (A₁/√K₁)/(A₂/√K₂) whatever the fan does (from Δp = K·ṁ²/(2ρA²)
+// with one density; by hand, 3 cm²/√4 over 1 cm²/√1.5 = 1.8371).
+func TestBypassSplit(t *testing.T) {
+	sol := solveAir(t, fmt.Sprintf(`
+ambient: {temperature: 20 degC}
+nodes:
+  - {id: plenum, kind: air}
+  - {id: rear, kind: air}
+links:
+  - {id: fan, kind: fan, from: ambient, to: plenum, curve: %s}
+  - {id: part, kind: loss, from: plenum, to: rear, coefficient: 4, area: 3 cm2}
+  - {id: bypass, kind: loss, from: plenum, to: rear, coefficient: 1.5, area: 1 cm2}
+  - {id: exit, kind: loss, from: rear, to: ambient, coefficient: 1, area: 5 cm2}
+`, parabolaCurve(100, 0.02, 11)))
+	want := (3 / math.Sqrt(4)) / (1 / math.Sqrt(1.5))
+	part, by := branchOf(t, sol, "part"), branchOf(t, sol, "bypass")
+	if r := part.MassFlow / by.MassFlow; math.Abs(r-want) > 1e-6*want {
+		t.Errorf("split %.8g, want %.8g", r, want)
+	}
+	if s := part.Share + by.Share; math.Abs(s-1) > 1e-9 {
+		t.Errorf("shares of part and bypass add to %g, want 1", s)
+	}
+}

@@ -35,8 +35,12 @@ var varKinds = []solve.Kind{
 	// matters.
 	TemperatureVar: {Name: "temperature", Unit: "K", Equation: "heat balance", EquationUnit: "W",
 		Scale: 1, MaxStep: 200, ResidualFloor: 1e-10},
+	// Pressures in a box are tens to hundreds of pascals: a scale of 10 Pa
+	// lets the solver's pseudo-transient steps move them at that pace
+	// (with 1 Pa they crawl where a flow must reverse), and still judges
+	// convergence to 1e-6 Pa.
 	PressureVar: {Name: "pressure", Unit: "Pa", Equation: "mass balance", EquationUnit: "kg/s",
-		Scale: 1, MaxStep: 1e4, ResidualFloor: 1e-15},
+		Scale: 10, MaxStep: 1e4, ResidualFloor: 1e-15},
 	// A branch's momentum balance is stamped by its one element, so its
 	// magnitude is its own residual: it is judged against the floor alone,
 	// 1e-8 Pa (a ten-millionth of the 0.1 Pa a good manometer reads, and
