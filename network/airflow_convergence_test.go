@@ -62,3 +62,45 @@ func TestAirflowConvergesAcrossConditions(t *testing.T) {
 		}
 	}
 }
+
+// A chassis with four fans in a wall (two stopped) feeding six heat sinks
+// in parallel, each with a bypass, converges and conserves mass: air
+// recirculates through the stopped fans.
+func TestFanWallWithStoppedFansConverges(t *testing.T) {
+	var b strings.Builder
+	b.WriteString(`
+ambient: {temperature: 30 degC}
+nodes:
+  - {id: front, kind: air}
+  - {id: plenum, kind: air}
+  - {id: rear, kind: air}
+links:
+  - {id: inlet, kind: perforated, from: ambient, to: front, area: 120 cm2, open_ratio: 0.5}
+  - {id: outlet, kind: perforated, from: rear, to: ambient, area: 120 cm2, open_ratio: 0.5}
+`)
+	curve := "[[0, 250 Pa], [10 CFM, 200 Pa], [20 CFM, 120 Pa], [30 CFM, 40 Pa], [34 CFM, 0 Pa]]"
+	for i := 0; i < 4; i++ {
+		state := ""
+		if i%2 == 1 {
+			state = ", state: stopped, area: 16 cm2"
+		}
+		fmt.Fprintf(&b, "  - {id: fan%d, kind: fan, from: front, to: plenum, curve: %s%s}\n", i, curve, state)
+	}
+	for i := 0; i < 6; i++ {
+		fmt.Fprintf(&b, "  - {id: sink%d, kind: channel, from: base%d, inlet: plenum, to: out%d, flow: solved, length: 60 mm, fin_count: 10, fin_thickness: 1 mm, fin_height: 20 mm, base_width: 40 mm, material: aluminium-6063}\n", i, i, i)
+		fmt.Fprintf(&b, "  - {id: gap%d, kind: loss, from: plenum, to: rear, coefficient: 1.5, area: 1 cm2}\n", i)
+		fmt.Fprintf(&b, "  - {id: exit%d, kind: loss, from: out%d, to: rear, coefficient: 1, area: 8 cm2}\n", i, i)
+	}
+	text := b.String()
+	nodes := ""
+	for i := 0; i < 6; i++ {
+		nodes += fmt.Sprintf("  - {id: base%d, power: %d W}\n  - {id: out%d, kind: air}\n", i, 10+5*i, i)
+	}
+	text = strings.Replace(text, "links:\n", nodes+"links:\n", 1)
+	sol := solveAir(t, text)
+	for _, id := range []string{"fan1", "fan3"} {
+		if f := branchOf(t, sol, id); !(f.MassFlow < 0) {
+			t.Errorf("stopped %s: %g kg/s, want air back through it", id, f.MassFlow)
+		}
+	}
+}
