@@ -386,3 +386,30 @@ links:
 		t.Errorf("shares of part and bypass add to %g, want 1", s)
 	}
 }
+
+// A heat sink at a given flow inside a solved air path: its stated flow
+// goes into the mass balances of its inlet and outlet, so the vent after
+// it carries exactly that flow and the fan's extra air leaves by the
+// other vent.
+func TestGivenChannelInSolvedPath(t *testing.T) {
+	sol := solveAir(t, fmt.Sprintf(`
+ambient: {temperature: 25 degC}
+nodes:
+  - {id: base, power: 20 W}
+  - {id: plenum, kind: air}
+  - {id: out, kind: air}
+links:
+  - {id: fan, kind: fan, from: ambient, to: plenum, curve: %s}
+  - {id: fins, kind: channel, from: base, inlet: plenum, to: out, mass_flow: 3 g/s, length: 50 mm,
+     fin_count: 10, fin_thickness: 1 mm, fin_height: 20 mm, base_width: 40 mm, material: aluminium-6063}
+  - {id: after, kind: loss, from: out, to: ambient, coefficient: 1, area: 5 cm2}
+  - {id: spill, kind: loss, from: plenum, to: ambient, coefficient: 1, area: 5 cm2}
+`, parabolaCurve(100, 0.02, 11)))
+	if m := branchOf(t, sol, "after").MassFlow; math.Abs(m-3e-3) > 1e-12 {
+		t.Errorf("vent after the sink: %.12g kg/s, want the sink's 3 g/s", m)
+	}
+	fan, spill := branchOf(t, sol, "fan").MassFlow, branchOf(t, sol, "spill").MassFlow
+	if math.Abs(fan-spill-3e-3) > 1e-12 {
+		t.Errorf("fan %g kg/s, spill %g kg/s: the difference should be the sink's 3 g/s", fan, spill)
+	}
+}
