@@ -151,6 +151,8 @@ func (f *Fan) OperatingPoint(m, tFrom, p float64) Operating {
 	switch {
 	case qc < 0:
 		op.Warnings = append(op.Warnings, fmt.Sprintf("air flows backwards through the running fan (%.4g m³/s): the pressure is extrapolated beyond shut-off", q))
+	case qc < f.firstFlow:
+		op.Warnings = append(op.Warnings, fmt.Sprintf("the fan runs below the first point of its curve (%.4g m³/s): the pressure is extrapolated", q))
 	case qc > f.lastFlow:
 		op.Warnings = append(op.Warnings, fmt.Sprintf("the fan runs beyond the free-delivery end of its curve (%.4g m³/s of %.4g m³/s): the pressure is extrapolated", q, op.FreeDelivery))
 	case qc < f.ShutoffFraction*f.free:

@@ -70,9 +70,13 @@ func (s *Stream) Paths(st *State) []Path {
 // temperature carried.
 func (s *Stream) Report(st *State) Report {
 	m := st.X[s.Flow]
+	up := s.Up
+	if s.Reversible && m < 0 {
+		up = s.Down // the air comes from the other end
+	}
 	return Report{Details: []Detail{
 		{Name: "mass_flow", Value: m, Unit: "kg/s"},
 		{Name: "capacity_rate", Value: m * st.Env.AirCp, Unit: "W/K"},
-		{Name: "air_temperature", Value: st.X[s.Up] - 273.15, Unit: "degC"},
+		{Name: "air_temperature", Value: st.X[up] - 273.15, Unit: "degC"},
 	}}
 }
