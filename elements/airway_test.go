@@ -267,3 +267,40 @@ func TestFanWarnings(t *testing.T) {
 		t.Errorf("a stopped fan: %+v, want a loss and a warning", op)
 	}
 }
+
+// Channels whose flow may reverse: forward they are the Channel itself
+// (to its reporting precision), backward the Channel from outlet to
+// inlet, and through zero their derivatives are exact and energy is
+// conserved.
+func TestReversibleChannel(t *testing.T) {
+	g, err := PlateFinSink(12, 1e-3, 20e-3, 50e-3, 60e-3, 200)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Variables: wall, inlet, outlet, flow.
+	fwd := Channel{Wall: 0, Inlet: 1, Outlet: 2, Flow: 3, Geometry: g}
+	rc := NewReversibleChannel(fwd)
+	for _, x := range [][]float64{{350, 300, 315, 4e-3}, {350, 315, 300, -4e-3}, {350, 300, 305, 5e-9}, {350, 305, 300, -2e-8}} {
+		checkJacobianIn(t, fmt.Sprintf("reversible channel at %v", x), flowEnv, rc, x, 1e-6)
+		r := stampAt(rc, flowEnv, x)
+		if e := r.q[0] + r.q[1] + r.q[2]; math.Abs(e) > 1e-12*(math.Abs(r.q[0])+math.Abs(r.q[1])+1e-12) {
+			t.Errorf("at %v: energy not conserved: %g W", x, e)
+		}
+	}
+	x := []float64{350, 300, 315, 4e-3}
+	one, two := stampAt(&fwd, flowEnv, x), stampAt(rc, flowEnv, x)
+	for i := range 3 {
+		if math.Abs(one.q[i]-two.q[i]) > 1e-9*math.Abs(one.q[i]) {
+			t.Errorf("forward, row %d: %.12g W, the channel's %.12g W", i, two.q[i], one.q[i])
+		}
+	}
+	back := Channel{Wall: 0, Inlet: 2, Outlet: 1, Flow: 3, Geometry: g}
+	y := []float64{350, 315, 300, -4e-3}
+	yb := []float64{350, 315, 300, 4e-3}
+	one, two = stampAt(&back, flowEnv, yb), stampAt(rc, flowEnv, y)
+	for i := range 3 {
+		if math.Abs(one.q[i]-two.q[i]) > 1e-9*math.Abs(one.q[i]) {
+			t.Errorf("backward, row %d: %.12g W, the reversed channel's %.12g W", i, two.q[i], one.q[i])
+		}
+	}
+}

@@ -116,8 +116,8 @@ func (c *Channel) solvedElement(e linkEnv) (elements.Element, error) {
 	if err != nil {
 		return nil, err
 	}
-	ch := &elements.Channel{Wall: e.from, Inlet: in, Outlet: e.to, Flow: flow,
-		Geometry: c.Geometry, Options: c.Options, Upstream: c.Upstream}
+	ch := elements.NewReversibleChannel(elements.Channel{Wall: e.from, Inlet: in, Outlet: e.to, Flow: flow,
+		Geometry: c.Geometry, Options: c.Options, Upstream: c.Upstream})
 	return elements.Combine(ch, aw), nil
 }
 

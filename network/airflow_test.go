@@ -413,3 +413,31 @@ links:
 		t.Errorf("fan %g kg/s, spill %g kg/s: the difference should be the sink's 3 g/s", fan, spill)
 	}
 }
+
+// A heat sink whose air runs backwards: written from inlet b to outlet a,
+// but a is pressurised by the stronger fan, so the air goes a → b and the
+// sink's heat arrives at b.
+func TestChannelFlowReverses(t *testing.T) {
+	sol := solveAir(t, fmt.Sprintf(`
+ambient: {temperature: 25 degC}
+nodes:
+  - {id: base, power: 20 W}
+  - {id: a, kind: air}
+  - {id: b, kind: air}
+links:
+  - {id: strong, kind: fan, from: ambient, to: a, curve: %s}
+  - {id: weak, kind: fan, from: ambient, to: b, curve: %s}
+  - {id: fins, kind: channel, from: base, inlet: b, to: a, flow: solved, length: 50 mm,
+     fin_count: 10, fin_thickness: 1 mm, fin_height: 20 mm, base_width: 40 mm, material: aluminium-6063}
+  - {id: vent-a, kind: loss, from: a, to: ambient, coefficient: 1, area: 2 cm2}
+  - {id: vent-b, kind: loss, from: b, to: ambient, coefficient: 1, area: 6 cm2}
+`, parabolaCurve(150, 0.02, 6), parabolaCurve(20, 0.01, 6)))
+	fins := branchOf(t, sol, "fins")
+	if !(fins.MassFlow < 0) {
+		t.Fatalf("fins: %g kg/s, want the air to run from a to b", fins.MassFlow)
+	}
+	ta, tb := nodeResult(t, sol, "a").Temperature, nodeResult(t, sol, "b").Temperature
+	if !(tb > ta+0.1) {
+		t.Errorf("a at %.3f K, b at %.3f K: the sink's heat should arrive at b", ta, tb)
+	}
+}
