@@ -3,6 +3,7 @@ package network
 import (
 	"bytes"
 	"fmt"
+	"math"
 	"strconv"
 	"strings"
 
@@ -210,6 +211,11 @@ func (r *reader) readNodes(n *yaml.Node, m *Model, ids map[string]nodeRef) []Nod
 			spec.Temperature, _ = o.temperature("temperature", true)
 			if o.has("pressure") {
 				spec.Pressure, _ = o.quantity("pressure", units.Pressure)
+				// A gauge pressure: a box's fans and vents work with pascals
+				// to a few kilopascals (10 kPa is a rule-of-thumb bound).
+				if math.Abs(spec.Pressure) > 10e3 {
+					r.addf(o.values["pressure"], o.field("pressure"), "%q is a gauge pressure above ambient, at most 10 kPa either way (e.g. 25 Pa); an absolute pressure belongs under ambient:", o.values["pressure"].Value)
+				}
 			}
 		}
 		if okID {
