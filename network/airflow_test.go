@@ -441,3 +441,23 @@ links:
 		t.Errorf("a at %.3f K, b at %.3f K: the sink's heat should arrive at b", ta, tb)
 	}
 }
+
+// A resistance given as R (Pa/(m³/s)²) is the same law as a drop at a
+// flow: 20 Pa at 0.01 m³/s is R = 2e5.
+func TestResistanceKey(t *testing.T) {
+	model := func(law string) float64 {
+		sol := solveAir(t, fmt.Sprintf(`
+ambient: {temperature: 20 degC}
+nodes:
+  - {id: plenum, kind: air}
+links:
+  - {id: fan, kind: fan, from: ambient, to: plenum, curve: %s}
+  - {id: system, kind: loss, from: plenum, to: ambient, %s}
+`, parabolaCurve(100, 0.02, 11), law))
+		return branchOf(t, sol, "system").MassFlow
+	}
+	a, b := model("drop: 20 Pa, at_flow: 0.01 m3/s"), model("resistance: 2e5 Pa/(m3/s)^2")
+	if math.Abs(a-b) > 1e-12*a {
+		t.Errorf("drop at flow %.12g kg/s, resistance %.12g kg/s", a, b)
+	}
+}

@@ -38,6 +38,7 @@ var (
 	dimDynamicViscosity        = dimension{-1, 1, -1, 0}
 	dimAcceleration            = dimension{1, 0, -2, 0}
 	dimFrequency               = dimension{0, 0, -1, 0}
+	dimFlowResistance          = dimension{-7, 1, 0, 0}
 )
 
 // addScaled returns d + n·e.

@@ -134,7 +134,12 @@ func TestParseAgainstSP811(t *testing.T) {
 		// (from memory): fan and filter data in inH2O are read at 4 °C.
 		{"1 inH2O", Pressure, 2.4884e+02, 1.1e-3},
 		{"0.1 inH2O", Pressure, 24.90889, sp811}, // SP 811 B.8: inch of water, conventional, 2.490 889 E+02
-		{"3000 rpm", RotationalSpeed, 50, exact}, // SP 811 B.8: revolution per minute, 1.666 667 E-02 (1/60, exact)
+		{"3000 rpm", RotationalSpeed, 50, exact},
+		// A flow resistance from SP 811 B.8 factors: inch of water,
+		// conventional, 2.490 889 E+02 Pa over (cubic foot per minute,
+		// 4.719 474 E-04 m3/s) squared.
+		{"1 inH2O/CFM^2", FlowResistance, 2.490889e+02 / (4.719474e-04 * 4.719474e-04), 3 * sp811},
+		{"2e5 Pa/(m3/s)^2", FlowResistance, 2e5, exact}, // SP 811 B.8: revolution per minute, 1.666 667 E-02 (1/60, exact)
 	}
 	for _, tt := range tests {
 		checkParse(t, tt.in, tt.kind, tt.want, tt.rel)
@@ -330,14 +335,14 @@ func TestKinds(t *testing.T) {
 		{Temperature.SIUnit(), "K"},
 		{Area.Examples(), "mm2, cm2, m2, in2"},
 		{Kind(-1).String(), "Kind(-1)"},
-		{(RotationalSpeed + 1).SIUnit(), ""},
-		{(RotationalSpeed + 1).Examples(), ""},
+		{(FlowResistance + 1).SIUnit(), ""},
+		{(FlowResistance + 1).Examples(), ""},
 	} {
 		if tt.got != tt.want {
 			t.Errorf("got %q, want %q", tt.got, tt.want)
 		}
 	}
-	for _, k := range []Kind{-1, RotationalSpeed + 1} {
+	for _, k := range []Kind{-1, FlowResistance + 1} {
 		parseError(t, "1", k)
 	}
 }
