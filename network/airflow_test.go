@@ -461,3 +461,34 @@ links:
 		t.Errorf("drop at flow %.12g kg/s, resistance %.12g kg/s", a, b)
 	}
 }
+
+// Push or pull: a fan at the intake and the same fan at the exhaust of the
+// same box are the same branch physics. Without heat they move the same
+// air; with heat, the exhaust fan draws warmer, lighter air, so at its
+// volume flow it moves less mass (fan laws: Δp ∝ ρ at a given volume
+// flow; a common rule in fan selection).
+func TestPushOrPull(t *testing.T) {
+	model := func(power string, push bool) float64 {
+		fan, vent := "ambient, to: box", "box, to: ambient"
+		if !push {
+			fan, vent = "box, to: ambient", "ambient, to: box"
+		}
+		sol := solveAir(t, fmt.Sprintf(`
+ambient: {temperature: 20 degC}
+nodes:
+  - {id: board, power: %s}
+  - {id: box, kind: air}
+links:
+  - {kind: convection, from: board, to: box, coefficient: 50 W/m2/K, area: 0.05 m2}
+  - {id: fan, kind: fan, from: %s, curve: %s}
+  - {id: vent, kind: loss, from: %s, coefficient: 2, area: 4 cm2}
+`, power, fan, parabolaCurve(100, 0.02, 11), vent))
+		return math.Abs(branchOf(t, sol, "fan").MassFlow)
+	}
+	if a, b := model("0 W", true), model("0 W", false); math.Abs(a-b) > 1e-9*a {
+		t.Errorf("no heat: push %.12g kg/s, pull %.12g kg/s, want the same", a, b)
+	}
+	if a, b := model("200 W", true), model("200 W", false); !(b < a) {
+		t.Errorf("200 W: push %.6g kg/s, pull %.6g kg/s; the exhaust fan should move less mass", a, b)
+	}
+}
