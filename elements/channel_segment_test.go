@@ -9,7 +9,7 @@ import (
 
 // split returns the k parts of channels of geometry g cut along the flow:
 // each with its share of the length and areas, its Upstream and Downstream.
-func split(g ChannelGeometry, k int, o duct.Options) []*Channel {
+func splitChannel(g ChannelGeometry, k int, o duct.Options) []*Channel {
 	part := g
 	part.Duct.Length /= float64(k)
 	part.PrimeArea /= float64(k)
@@ -34,7 +34,7 @@ func TestChannelSegmentNeverBelowDeveloped(t *testing.T) {
 		for _, k := range []int{2, 3, 5, 10, 40} {
 			for _, mdot := range []float64{1e-4, 5e-4, 2e-3, 6e-3} {
 				s := &State{X: []float64{340, 298, 312, mdot}, Env: airEnv}
-				for i, c := range split(g, k, duct.Options{}) {
+				for i, c := range splitChannel(g, k, duct.Options{}) {
 					rep := c.Report(s)
 					if detail(t, rep, "regime").Text[:7] != "laminar" {
 						continue
@@ -60,7 +60,7 @@ func TestChannelLossesOncePerChannel(t *testing.T) {
 	want := detail(t, whole.Report(s), "pressure_drop").Value
 	for _, k := range []int{2, 3, 4} {
 		sum, kSum := 0.0, 0.0
-		for i, c := range split(g, k, duct.Options{}) {
+		for i, c := range splitChannel(g, k, duct.Options{}) {
 			rep := c.Report(s)
 			sum += detail(t, rep, "pressure_drop").Value
 			kc := detail(t, rep, "loss_coefficient").Value

@@ -83,3 +83,23 @@ func BenchmarkEvaluateChannels(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkFanWall solves a chassis of four fans (two stopped) feeding six
+// heat sinks with bypasses: flows, pressures and temperatures together.
+func BenchmarkFanWall(b *testing.B) {
+	text := fanWallModel()
+	m, err := network.Parse("wall.yaml", []byte(text))
+	if err != nil {
+		b.Fatal(err)
+	}
+	net, err := network.Build(m)
+	if err != nil {
+		b.Fatal(err)
+	}
+	for b.Loop() {
+		p := net.Steady()
+		if r := solve.Newton(p, p.InitialGuess(), solve.Settings{}); !r.Reason.Converged() {
+			b.Fatal(r.Reason)
+		}
+	}
+}

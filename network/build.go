@@ -20,6 +20,8 @@ type Node struct {
 	Capacity    float64 // heat capacity, J/K; 0 when none is given
 	Limit       float64 // K, when HasLimit
 	HasLimit    bool
+	Height      float64 // m, of an air node (stack effect)
+	Pressure    float64 // Pa above ambient, of a fixed node in an air path
 	Note        string
 	Line        int
 }
@@ -57,6 +59,7 @@ type Network struct {
 
 	sources []elements.Element // the heat inputs of nodes and components
 	stores  []elements.Element // the heat capacities of nodes
+	pvar    map[int]int        // node -> its pressure variable, for nodes in a solved air path
 	free    []int              // variable -> unknown index, -1 for given variables
 	unknown []int              // unknown index -> variable
 	asm     *assembly
@@ -105,7 +108,7 @@ func Build(m *Model) (*Network, error) {
 	}
 	add(Node{ID: AmbientID, Kind: Fixed, Temperature: m.Ambient.Temperature, Line: m.Ambient.Line, Note: "ambient air and surroundings"})
 	for _, s := range m.Nodes {
-		add(Node{ID: s.ID, Kind: s.Kind, Temperature: s.Temperature, Power: s.Power, Capacity: s.Capacity, Limit: s.Limit, HasLimit: s.HasLimit, Note: s.Note, Line: s.Line})
+		add(Node{ID: s.ID, Kind: s.Kind, Temperature: s.Temperature, Power: s.Power, Capacity: s.Capacity, Limit: s.Limit, HasLimit: s.HasLimit, Height: s.Height, Pressure: s.Pressure, Note: s.Note, Line: s.Line})
 	}
 	for _, c := range m.Components {
 		j := add(Node{ID: c.ID, Kind: Junction, Power: c.Power, Capacity: c.Capacity, Limit: c.Limit, HasLimit: c.HasLimit, Note: c.Note, Line: c.Line})
@@ -125,6 +128,7 @@ func Build(m *Model) (*Network, error) {
 			net.Links = append(net.Links, Link{ID: c.ID + leg.suffix, Kind: leg.kind, From: j, To: net.Index[leg.end], Line: c.Line, Element: el})
 		}
 	}
+	net.assignPressures()
 	for _, l := range m.Links {
 		a, b := net.Index[l.From], net.Index[l.To]
 		others := make([]int, len(l.Others))
@@ -138,6 +142,7 @@ func Build(m *Model) (*Network, error) {
 		}
 		net.Links = append(net.Links, Link{ID: l.ID, Kind: l.Kind, From: a, To: b, Note: l.Note, Line: l.Line, Element: el})
 	}
+	net.startFlows()
 	for _, e := range m.Enclosures {
 		links, err := net.enclosureLinks(e)
 		if err != nil {

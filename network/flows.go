@@ -46,9 +46,11 @@ func (m *Model) unbalancedAir() Problems {
 			in[down] += f
 		}
 	}
+	// Nodes of a solved air path are balanced by the solve itself.
+	solved := m.solvedAirNodes()
 	var ps Problems
 	for _, n := range m.Nodes {
-		if n.Kind != Air || unknown[n.ID] {
+		if n.Kind != Air || unknown[n.ID] || solved[n.ID] {
 			continue
 		}
 		a, b := in[n.ID], out[n.ID]

@@ -55,7 +55,10 @@ func (net *Network) CheckJacobian(x []float64, worst int) (*JacobianCheck, error
 	sc := make([]float64, n)
 	y0 := make([]float64, n)
 	for j, v := range x {
-		sc[j] = math.Max(math.Abs(v), varKinds[p.KindOf(j)].Scale*1e-3)
+		// A variable near zero (a gauge pressure at the start) is stepped
+		// relative to its kind's scale: a step far below it would drown
+		// in the round-off of the other terms of its equations.
+		sc[j] = math.Max(math.Abs(v), varKinds[p.KindOf(j)].Scale)
 		y0[j] = x[j] / sc[j]
 	}
 	num := mat.NewDense(n, n, nil)

@@ -35,7 +35,7 @@ func init() {
 			"   fin_count: 14, fin_thickness: 1.2 mm, fin_height: 30 mm, base_width: 80 mm, material: aluminium-6063}",
 		keys: []keySpec{
 			{name: "inlet", what: "node", need: "required", help: "the air or fixed node the air comes from"},
-			{name: "flow", dim: units.VolumeFlow, need: "one of flow, mass_flow", help: "volume flow of ambient air"},
+			{name: "flow", dim: units.VolumeFlow, need: "one of flow, mass_flow", help: "volume flow of ambient air, or solved: the flow the air path's fans and losses give"},
 			{name: "mass_flow", dim: units.MassFlow, need: "one of flow, mass_flow"},
 			{name: "length", dim: units.Length, need: "required", help: "channel length along the flow"},
 			{name: "fin_count", what: "count", need: "for a heat sink", help: "number of fins (2 to 1000)"},
@@ -68,6 +68,7 @@ func init() {
 // the outlet air node, with the inlet as a third node.
 type Channel struct {
 	MassFlow float64 // kg/s
+	Solved   bool    // flow: solved: the flow is an unknown, with the channels' drop as its law (airflow.go)
 	Geometry elements.ChannelGeometry
 	Options  duct.Options
 	Upstream float64 // length of the same channels before this segment, m
@@ -78,8 +79,15 @@ type Channel struct {
 func (c *Channel) air(l *LinkSpec) (string, string, float64) { return l.Others[0], l.To, c.MassFlow }
 
 func (c *Channel) element(e linkEnv) (elements.Element, error) {
-	return &elements.Channel{Wall: e.from, Inlet: e.others[0], Outlet: e.to, Flow: e.givenFlow(c.MassFlow),
-		Geometry: c.Geometry, Options: c.Options, Upstream: c.Upstream, Downstream: c.Downstream}, nil
+	if c.Solved {
+		return c.solvedElement(e)
+	}
+	f := e.givenFlow(c.MassFlow)
+	el := &elements.Channel{Wall: e.from, Inlet: e.others[0], Outlet: e.to, Flow: f,
+		Geometry: c.Geometry, Options: c.Options, Upstream: c.Upstream, Downstream: c.Downstream}
+	// A given flow between nodes of a solved air path adds its mass to
+	// their balances (airflow.go).
+	return e.carried(el, e.others[0], e.to, f), nil
 }
 
 // The largest counts of fins and of parallel passages a link takes: far
@@ -104,7 +112,11 @@ var (
 func parseChannel(o *object, m *Model) LinkParams {
 	c := &Channel{}
 	var ok bool
-	c.MassFlow, ok = massFlow(o, m)
+	if c.Solved = solvedFlow(o); c.Solved {
+		ok = true
+	} else {
+		c.MassFlow, ok = massFlow(o, m)
+	}
 	length, okL := o.positive("length", units.Length, true)
 	ok = ok && okL
 	switch {

@@ -32,7 +32,8 @@ type Stream struct {
 func (s *Stream) air(l *LinkSpec) (string, string, float64) { return l.From, l.To, s.MassFlow }
 
 func (s *Stream) element(e linkEnv) (elements.Element, error) {
-	return &elements.Stream{Up: e.from, Down: e.to, Flow: e.givenFlow(s.MassFlow)}, nil
+	f := e.givenFlow(s.MassFlow)
+	return e.carried(&elements.Stream{Up: e.from, Down: e.to, Flow: f}, e.from, e.to, f), nil
 }
 
 func parseStream(o *object, m *Model) LinkParams {

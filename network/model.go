@@ -53,6 +53,8 @@ type NodeSpec struct {
 	Temperature float64  // K (Fixed only)
 	Limit       float64  // highest allowed temperature, K (when HasLimit)
 	HasLimit    bool
+	Height      float64 // elevation of an air node, m, for the stack effect (Air only)
+	Pressure    float64 // gauge pressure above ambient where air leaves or enters, Pa (Fixed only)
 	Note        string
 	Line        int
 }

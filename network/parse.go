@@ -3,6 +3,7 @@ package network
 import (
 	"bytes"
 	"fmt"
+	"math"
 	"strconv"
 	"strings"
 
@@ -83,6 +84,7 @@ func Parse(file string, data []byte) (*Model, error) {
 	if !r.broken {
 		r.problems = append(r.problems, m.isolated()...)
 		r.problems = append(r.problems, m.unbalancedAir()...)
+		r.problems = append(r.problems, m.closedAir()...)
 	}
 	if len(r.problems) > 0 {
 		return nil, r.finish()
@@ -127,8 +129,8 @@ func (r *reader) readAmbient(top *object, m *Model) {
 
 var (
 	solidKeys = []string{"id", "kind", "power", "limit", "note"}
-	fixedKeys = []string{"id", "kind", "temperature", "note"}
-	airKeys   = []string{"id", "kind", "limit", "note"}
+	fixedKeys = []string{"id", "kind", "temperature", "note", "pressure"}
+	airKeys   = []string{"id", "kind", "limit", "note", "height"}
 	nodeKinds = []string{string(Solid), string(Fixed), string(Air)}
 )
 
@@ -195,6 +197,9 @@ func (r *reader) readNodes(n *yaml.Node, m *Model, ids map[string]nodeRef) []Nod
 			o.checkKeys(append(append(airKeys, "power"), airCapacityKeys...), "an air node")
 			spec.Limit, spec.HasLimit = o.temperature("limit", false)
 			spec.Capacity = readAirCapacity(o, m)
+			if o.has("height") {
+				spec.Height, _ = o.quantity("height", units.Length)
+			}
 		case Fixed:
 			if o.has("power") {
 				r.addf(o.values["power"], o.field("power"), "a fixed-temperature node cannot take a heat input (its temperature is given); put the heat on a solid node linked to it")
@@ -204,6 +209,14 @@ func (r *reader) readNodes(n *yaml.Node, m *Model, ids map[string]nodeRef) []Nod
 			}
 			o.checkKeys(append(fixedKeys, "power", "limit"), "a fixed node")
 			spec.Temperature, _ = o.temperature("temperature", true)
+			if o.has("pressure") {
+				spec.Pressure, _ = o.quantity("pressure", units.Pressure)
+				// A gauge pressure: a box's fans and vents work with pascals
+				// to a few kilopascals (10 kPa is a rule-of-thumb bound).
+				if math.Abs(spec.Pressure) > 10e3 {
+					r.addf(o.values["pressure"], o.field("pressure"), "%q is a gauge pressure above ambient, at most 10 kPa either way (e.g. 25 Pa); an absolute pressure belongs under ambient:", o.values["pressure"].Value)
+				}
+			}
 		}
 		if okID {
 			out = append(out, spec)

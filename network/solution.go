@@ -65,6 +65,9 @@ type Balance struct {
 	In        float64        // total heat input, W
 	Out       []BoundaryHeat // per fixed node, in node order
 	Imbalance float64        // In − ΣOut, W; round-off at a converged solution
+	// Mass is the mass balance of every node that air flows through, and
+	// the air entering or leaving through each fixed node, in node order.
+	Mass []MassBalance
 }
 
 // Solution is a solved network presented for people: every node against
@@ -75,6 +78,7 @@ type Solution struct {
 	T        []float64 // every node's temperature, K (the first variables)
 	Nodes    []NodeResult
 	Links    []LinkResult
+	Branches []BranchResult // every link that carries air: its flow, pressures and, for a fan, its operating point
 	Balance  Balance
 	Residual Residual
 	Warnings []string
@@ -161,6 +165,7 @@ func (net *Network) Solution(x []float64) *Solution {
 		}
 	}
 	sol.Balance.Imbalance = sol.Balance.In - out
+	sol.Branches, sol.Balance.Mass = net.airflowResults(state)
 	return sol
 }
 

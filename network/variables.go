@@ -28,12 +28,25 @@ const (
 // step, and a residual small enough to be zero whatever the equation's
 // terms.
 var varKinds = []solve.Kind{
+	// The heat balance's floor is about the round-off of the enthalpy
+	// that air carries through a node that nothing heats: ṁ·c_p·ulp(T),
+	// 1e-12 W at 20 g/s and 300 K, where every term is relative to ambient
+	// and so near zero (the solver adds the round-off of each balance's
+	// terms on top of it).
 	TemperatureVar: {Name: "temperature", Unit: "K", Equation: "heat balance", EquationUnit: "W",
-		Scale: 1, MaxStep: 500, ResidualFloor: 1e-15},
+		Scale: 1, MaxStep: 500, ResidualFloor: 1e-12},
+	// Pressures in a box are tens to hundreds of pascals: a scale of 10 Pa
+	// lets the solver's pseudo-transient steps move them at that pace
+	// (with 1 Pa they crawl where a flow must reverse), and still judges
+	// convergence to 1e-6 Pa.
 	PressureVar: {Name: "pressure", Unit: "Pa", Equation: "mass balance", EquationUnit: "kg/s",
-		Scale: 1, MaxStep: 1e4, ResidualFloor: 1e-15},
+		Scale: 10, MaxStep: 1e4, ResidualFloor: 1e-15},
+	// A branch's momentum balance is stamped by its one element, so its
+	// magnitude is its own residual: it is judged against the floor alone,
+	// 1e-8 Pa (a ten-millionth of the 0.1 Pa a good manometer reads, and
+	// round-off of pressures of kilopascals).
 	MassFlowVar: {Name: "mass flow", Unit: "kg/s", Equation: "momentum balance", EquationUnit: "Pa",
-		Scale: 1e-4, MaxStep: 1, ResidualFloor: 1e-12},
+		Scale: 1e-4, MaxStep: 1, ResidualFloor: 1e-8},
 }
 
 // VarKinds returns the kinds of variables, as the solver sees them.

@@ -37,6 +37,8 @@ var (
 	dimHeatCapacity            = dimension{2, 1, -2, -1}
 	dimDynamicViscosity        = dimension{-1, 1, -1, 0}
 	dimAcceleration            = dimension{1, 0, -2, 0}
+	dimFrequency               = dimension{0, 0, -1, 0}
+	dimFlowResistance          = dimension{-7, 1, 0, 0}
 )
 
 // addScaled returns d + n·e.

@@ -33,6 +33,8 @@ const (
 	HeatCapacity                        // J/K
 	DynamicViscosity                    // Pa s
 	Acceleration                        // m/s2
+	RotationalSpeed                     // 1/s (revolutions per second): "3000 rpm" is 50
+	FlowResistance                      // Pa s2/m6: a pressure drop per volume flow squared, Δp = R·Q²
 )
 
 // kindInfo describes a Kind: its name, its SI unit, a few valid units, a
@@ -71,6 +73,8 @@ var kinds = [...]kindInfo{
 	HeatCapacity:            {"heat capacity", "J/K", "J/K, kJ/K", "50 J/K", dimHeatCapacity},
 	DynamicViscosity:        {"dynamic viscosity", "Pa s", "Pa s, mPa s, kg/(m s)", "1.8e-5 Pa s", dimDynamicViscosity},
 	Acceleration:            {"acceleration", "m/s2", "m/s2, ft/s2", "9.81 m/s2", dimAcceleration},
+	RotationalSpeed:         {"rotational speed", "1/s", "rpm, 1/s", "3000 rpm", dimFrequency},
+	FlowResistance:          {"flow resistance", "Pa s2/m6", "Pa*s2/m6, Pa/(m3/s)^2, inH2O/CFM^2", "2e5 Pa*s2/m6", dimFlowResistance},
 }
 
 // info returns the description of k and whether k is one of the declared

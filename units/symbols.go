@@ -81,6 +81,10 @@ var symbols = []symbol{
 	{names: []string{"inH2O"}, scale: millimetreOfWater * 25.4, dim: dimPressure},
 	{names: []string{"CFM", "cfm"}, scale: foot * foot * foot / 60, dim: dimVolumeFlow},
 	{names: []string{"LPM", "lpm"}, scale: 1e-3 / 60, dim: dimVolumeFlow},
+	// Air velocity as fan and filter data give it: linear feet per minute.
+	{names: []string{"LFM", "lfm", "FPM", "fpm"}, scale: foot / 60, dim: dimVelocity},
+	// Revolutions per minute, of a fan.
+	{names: []string{"rpm", "RPM"}, scale: 1.0 / 60, dim: dimFrequency},
 	{names: []string{"%"}, scale: 0.01},
 }
 

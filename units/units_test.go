@@ -122,6 +122,24 @@ func TestParseAgainstSP811(t *testing.T) {
 		{"1 lb/ft3", Density, 1.601846e+01, sp811},     // SP 811 B.8: pound per cubic foot, 1.601 846 E+01
 		{"1 ft/min", Velocity, 5.08e-03, exact},        // SP 811 B.8: foot per minute, 5.08 E-03 (exact)
 		{"1 ft/s2", Acceleration, 3.048e-01, exact},    // SP 811 B.8: foot per second squared, 3.048 E-01 (exact); from memory
+		// Airflow as fan, filter and vent data give it.
+		{"1 m3/h", VolumeFlow, 1.0 / 3600, exact},    // definition of the hour
+		{"1 L/s", VolumeFlow, 1.0e-03, exact},        // SP 811 B.8: liter per second, 1.0 E-03 (exact)
+		{"1 L/min", VolumeFlow, 1.666667e-05, sp811}, // SP 811 B.8: liter per minute, 1.666 667 E-05; from memory
+		{"100 LFM", Velocity, 0.508, exact},          // SP 811 B.8: foot per minute, 5.08 E-03 (exact)
+		{"1 FPM", Velocity, 5.08e-03, exact},         // as ft/min
+		// inH2O is the conventional inch of water (1000 kg/m3, standard
+		// gravity), within 2.8e-5 of SP 811's inch of water at 39.2 °F
+		// (4 °C) and 1.0e-3 above its inch of water at 60 °F, 2.4884 E+02
+		// (from memory): fan and filter data in inH2O are read at 4 °C.
+		{"1 inH2O", Pressure, 2.4884e+02, 1.1e-3},
+		{"0.1 inH2O", Pressure, 24.90889, sp811}, // SP 811 B.8: inch of water, conventional, 2.490 889 E+02
+		{"3000 rpm", RotationalSpeed, 50, exact},
+		// A flow resistance from SP 811 B.8 factors: inch of water,
+		// conventional, 2.490 889 E+02 Pa over (cubic foot per minute,
+		// 4.719 474 E-04 m3/s) squared.
+		{"1 inH2O/CFM^2", FlowResistance, 2.490889e+02 / (4.719474e-04 * 4.719474e-04), 3 * sp811},
+		{"2e5 Pa/(m3/s)^2", FlowResistance, 2e5, exact}, // SP 811 B.8: revolution per minute, 1.666 667 E-02 (1/60, exact)
 	}
 	for _, tt := range tests {
 		checkParse(t, tt.in, tt.kind, tt.want, tt.rel)
@@ -317,14 +335,14 @@ func TestKinds(t *testing.T) {
 		{Temperature.SIUnit(), "K"},
 		{Area.Examples(), "mm2, cm2, m2, in2"},
 		{Kind(-1).String(), "Kind(-1)"},
-		{(Acceleration + 1).SIUnit(), ""},
-		{(Acceleration + 1).Examples(), ""},
+		{(FlowResistance + 1).SIUnit(), ""},
+		{(FlowResistance + 1).Examples(), ""},
 	} {
 		if tt.got != tt.want {
 			t.Errorf("got %q, want %q", tt.got, tt.want)
 		}
 	}
-	for _, k := range []Kind{-1, Acceleration + 1} {
+	for _, k := range []Kind{-1, FlowResistance + 1} {
 		parseError(t, "1", k)
 	}
 }

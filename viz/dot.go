@@ -135,6 +135,9 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 			colour = airColour
 		}
 		attrs := edgeAttrs(e.heat, qMax, e.tooltip(), colour)
+		if e.air && e.hasFlow {
+			attrs["label"] = q(fmt.Sprintf("%.3g W, %.3g L/s", e.heat, math.Abs(e.flow)*1e3))
+		}
 		if e.fromName != e.from || e.toName != e.to {
 			// A copy of a fixed node hangs off its neighbour: leave the
 			// straightening to the paths between the nodes that matter,
@@ -157,7 +160,11 @@ type heatEdge struct {
 	fromName, toName string // DOT node names (a split fixed node's copy)
 	heat             float64
 	air              bool // heat carried by moving air
-	parts            []edgePart
+	// flow is the solved volume flow (m³/s) of the air on this path, when
+	// every part of it is a solved branch; hasFlow says so.
+	flow    float64
+	hasFlow bool
+	parts   []edgePart
 }
 
 type edgePart struct {
@@ -188,7 +195,7 @@ func heatEdges(sol *network.Solution) []heatEdge {
 	}
 	index := map[key]int{}
 	var edges []heatEdge
-	add := func(from, to string, heat float64, air bool, what string) {
+	add := func(from, to string, heat float64, air bool, what string) int {
 		a, b, sign := from, to, 1.0
 		if b < a {
 			a, b, sign = b, a, -1
@@ -202,6 +209,13 @@ func heatEdges(sol *network.Solution) []heatEdge {
 		}
 		edges[i].heat += sign * heat
 		edges[i].parts = append(edges[i].parts, edgePart{what: what, heat: sign * heat})
+		return i
+	}
+	flows := map[string]float64{} // solved air flows by link, m³/s
+	for _, b := range sol.Branches {
+		if b.Solved {
+			flows[b.Link] = b.VolumeFlow
+		}
 	}
 	for _, l := range sol.Links {
 		for k, p := range l.Paths {
@@ -213,7 +227,16 @@ func heatEdges(sol *network.Solution) []heatEdge {
 				// The air a channel passes on carries heat of its own.
 				what = fmt.Sprintf("%s: air from %s", l.ID, p.From)
 			}
-			add(p.From, p.To, p.Heat, p.Carried, what)
+			i := add(p.From, p.To, p.Heat, p.Carried, what)
+			if f, solved := flows[l.ID]; solved && p.Carried {
+				if len(edges[i].parts) == 1 {
+					edges[i].flow, edges[i].hasFlow = f, true
+				} else {
+					edges[i].flow += f
+				}
+			} else if p.Carried {
+				edges[i].hasFlow = false
+			}
 		}
 	}
 	for i := range edges {

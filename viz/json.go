@@ -24,6 +24,7 @@ type Report struct {
 	Nodes    []NodeReport      `json:"nodes,omitempty"`
 	Links    []LinkReport      `json:"links,omitempty"`
 	Balance  *BalanceReport    `json:"energy_balance,omitempty"`
+	Airflow  *AirflowReport    `json:"airflow,omitempty"` // when flows were solved for
 	Exceeded []string          `json:"limits_exceeded,omitempty"`
 	Warnings []string          `json:"warnings"`
 	Caution  string            `json:"caution"`
@@ -179,6 +180,7 @@ func NewReport(m *network.Model, sol *network.Solution, run Run) *Report {
 		b.Out = append(b.Out, BoundaryReport{Node: o.Node, HeatW: Number(o.Heat)})
 	}
 	r.Balance = b
+	r.Airflow = newAirflowReport(sol)
 	r.Warnings = append(r.Warnings, sol.Warnings...)
 	r.Warnings = append(r.Warnings, NonFinite(sol)...)
 	return r

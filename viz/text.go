@@ -86,6 +86,7 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 	}
 
 	writeDetails(tw, sol)
+	writeAirflow(tw, sol)
 
 	b := sol.Balance
 	tw.printf("\nenergy balance [W]\n")
