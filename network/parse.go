@@ -140,8 +140,8 @@ func (r *reader) readAmbient(top *object, m *Model) {
 	}
 	o.checkKeys(ambientKeys, "ambient")
 	m.Ambient.Line = n.Line
-	if t, ok := o.required("temperature", units.Temperature); ok {
-		m.Ambient.Temperature = t
+	if t, prof, ok := o.varying("temperature", units.Temperature, true); ok {
+		m.Ambient.Temperature, m.Ambient.TemperatureProfile = t, prof
 	}
 	m.Ambient.Pressure = air.SeaLevelP
 	if o.has("pressure") && o.has("altitude") {
@@ -221,7 +221,7 @@ func (r *reader) readNodes(n *yaml.Node, m *Model, ids map[string]nodeRef) []Nod
 		switch spec.Kind {
 		case Solid:
 			o.checkKeys(append(solidKeys, capacityKeys...), "a solid node")
-			spec.Power, _ = o.quantity("power", units.Power)
+			spec.Power, spec.PowerProfile, _ = o.varying("power", units.Power, false)
 			spec.Limit, spec.HasLimit = o.quantity("limit", units.Temperature)
 			spec.Capacity = readCapacity(o, m)
 		case Air:
@@ -239,7 +239,7 @@ func (r *reader) readNodes(n *yaml.Node, m *Model, ids map[string]nodeRef) []Nod
 				r.addf(o.values["limit"], o.field("limit"), "a fixed-temperature node has no limit to check (its temperature is given)")
 			}
 			o.checkKeys(append(fixedKeys, "power", "limit"), "a fixed node")
-			spec.Temperature, _ = o.required("temperature", units.Temperature)
+			spec.Temperature, spec.TemperatureProfile, _ = o.varying("temperature", units.Temperature, true)
 		}
 		if okID {
 			out = append(out, spec)
@@ -266,7 +266,7 @@ func (r *reader) readComponents(n *yaml.Node, m *Model, ids map[string]nodeRef) 
 		}
 		c.ID = id
 		c.Note, _ = o.str("note")
-		c.Power, _ = o.required("power", units.Power)
+		c.Power, c.PowerProfile, _ = o.varying("power", units.Power, true)
 		c.Limit, c.HasLimit = o.quantity("limit", units.Temperature)
 		c.Capacity = readCapacity(o, m)
 		c.Case, _ = o.str("case")
