@@ -367,6 +367,7 @@ func (it *integrator) run() TransientResult {
 	}
 	ji := 0
 	t := s.Start
+	afterJump := false
 	span := s.End - s.Start
 	for t < s.End {
 		if it.res.Steps >= s.MaxSteps {
@@ -392,7 +393,7 @@ func (it *integrator) run() TransientResult {
 			// Two even steps rather than a long one and a sliver.
 			hTry = (stop - t) / 2
 		}
-		errNorm, ok, err := it.step(t, hTry, landing && isJump)
+		errNorm, ok, err := it.step(t, hTry, afterJump, landing && isJump)
 		if err != nil && !ok {
 			var le *linearError
 			if errors.As(err, &le) {
@@ -426,6 +427,7 @@ func (it *integrator) run() TransientResult {
 		it.info.Step = it.res.Steps
 		it.info.T, it.info.H, it.info.Error = t, hTry, errNorm
 		it.info.Rejected = it.res.Rejected
+		afterJump = landing && isJump
 		if landing {
 			t = stop
 		} else {
@@ -506,15 +508,22 @@ func (it *integrator) consistent(t, eps float64) error {
 
 // step takes one TR-BDF2 step from (t, it.x) of length h into it.x1 and
 // returns the estimated error relative to the tolerance (0 with fixed
-// steps). jumpEnd evaluates the end of the step just before t+h.
-func (it *integrator) step(t, h float64, jumpEnd bool) (float64, bool, error) {
+// steps). A step that starts on a jump is evaluated from just after it,
+// and a step that ends on one up to just before it: a billionth of the
+// step inside, so that the given quantities take their values on the
+// step's own side of the jump whatever the round-off in computing the
+// jump's time.
+func (it *integrator) step(t, h float64, jumpStart, jumpEnd bool) (float64, bool, error) {
 	p := it.p
-	tg, t1 := t+gamma*h, t+h
+	t0, tg, t1 := t, t+gamma*h, t+h
+	if jumpStart {
+		t0 += 1e-9 * h
+	}
 	if jumpEnd {
-		t1 = math.Nextafter(t1, math.Inf(-1))
+		t1 -= 1e-9 * h
 	}
 	// F and E at the start.
-	p.SetTime(t)
+	p.SetTime(t0)
 	if err := p.Evaluate(it.x, it.f0, nil, nil); err != nil {
 		return 0, false, err
 	}
@@ -559,7 +568,7 @@ func (it *integrator) step(t, h float64, jumpEnd bool) (float64, bool, error) {
 		return 0, false, err
 	}
 	it.info.Stages = [3]Stage{
-		{T: t, X: it.x, W: wTrap * h},
+		{T: t0, X: it.x, W: wTrap * h},
 		{T: tg, X: it.xg, W: wTrap * h},
 		{T: t1, X: it.x1, W: wEnd * h},
 	}
