@@ -1,0 +1,173 @@
+package network_test
+
+import (
+	"math"
+	"testing"
+
+	"github.com/heatgraph/heatgraph/network"
+	"github.com/heatgraph/heatgraph/solve"
+)
+
+// A box with nonlinear links (radiation, exact T⁴) and a massless node:
+// after many time constants a run must arrive at the steady solution (the
+// steady state is the limit of the transient as t → ∞ for a stable
+// network; a consistency check of the two solvers, not a published value).
+const warmBox = `
+ambient: {temperature: 25 degC}
+nodes:
+  - {id: board, power: 6 W, capacity: 120 J/K, limit: 90 degC}
+  - {id: pad}                                  # massless
+  - {id: lid, capacity: 400 J/K}
+components:
+  - {id: cpu, power: 4 W, r_jc: 0.5 K/W, case: pad, r_jb: 8 K/W, board: board, capacity: 2 J/K, limit: 95 degC}
+links:
+  - {from: pad, to: lid, kind: lumped, conductance: 2 W/K}
+  - {from: board, to: lid, kind: lumped, conductance: 0.8 W/K}
+  - {from: lid, kind: convection, coefficient: 6 W/m2/K, area: 0.05 m2}
+  - {from: lid, kind: radiation, emissivity: 0.9, area: 0.05 m2}
+`
+
+func TestLongRunReachesSteadyState(t *testing.T) {
+	net := assembleModel(t, "box.yaml", warmBox)
+	st := net.Steady()
+	res := solve.Newton(st, st.InitialGuess(), solve.Settings{})
+	if !res.Reason.Converged() {
+		t.Fatal(res.Reason)
+	}
+	steady := net.Solution(res.X)
+	// The slowest time constant is about C_lid/G_lid ≈ 400/(0.3 + 0.3) s;
+	// 40 000 s is far beyond it.
+	h, err := net.Run(network.RunOptions{End: 40000, RelTol: 1e-7, AbsTol: 1e-5})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !h.Completed() {
+		t.Fatalf("run ended: %v (%v)", h.Result.Reason, h.Result.Err)
+	}
+	last := h.T[len(h.T)-1]
+	for i, n := range net.Nodes {
+		if d := math.Abs(last[i] - steady.T[i]); d > 1e-4 {
+			t.Errorf("%s: %.6f K after the run, steady %.6f K", n.ID, last[i], steady.T[i])
+		}
+	}
+	if h.Times[len(h.Times)-1] != 40000 || h.Times[0] != 0 || len(h.Times) != 101 {
+		t.Errorf("output times: %d from %g to %g s, want 101 from 0 to 40000", len(h.Times), h.Times[0], h.Times[len(h.Times)-1])
+	}
+}
+
+// The energy over a run with a pulse train, a massless node and radiation
+// balances: heat in = heat out + change of the heat stored, to far within
+// EnergyTolerance (the first law for the whole box).
+func TestRunEnergyBalances(t *testing.T) {
+	net := assembleModel(t, "box.yaml", `
+ambient: {temperature: 25 degC}
+nodes:
+  - {id: board, power: {pulse: {base: 1 W, peak: 30 W, start: 5 s, width: 3 s}, repeat: 60 s}, capacity: 50 J/K}
+  - {id: pad}
+  - {id: lid, capacity: 300 J/K}
+  - {id: rail, kind: fixed, temperature: {step: {before: 25 degC, after: 40 degC, at: 200 s}}}
+links:
+  - {from: board, to: pad, kind: lumped, conductance: 3 W/K}
+  - {from: pad, to: lid, kind: lumped, conductance: 2 W/K}
+  - {from: lid, to: rail, kind: lumped, conductance: 0.3 W/K}
+  - {from: lid, kind: radiation, emissivity: 0.9, area: 0.05 m2}
+`)
+	h, err := net.Run(network.RunOptions{End: 600, Start: network.FromSteady})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !h.Completed() {
+		t.Fatalf("run ended: %v (%v)", h.Result.Reason, h.Result.Err)
+	}
+	e := h.Energy
+	// Pulses: 10 per run of 29 W extra for 3 s, over 1 W for 600 s.
+	if want := 600*1.0 + 10*29*3; math.Abs(e.Sources-want) > 1e-9*want {
+		t.Errorf("heat from sources %.9g J, want %.9g J (the profile's integral)", e.Sources, want)
+	}
+	t.Logf("imbalance %.3g J relative %.3g, steps %d", e.Imbalance, e.Relative(), h.Result.Steps)
+	if r := e.Relative(); r > 1e-8 {
+		t.Errorf("energy imbalance %.3g J (%.2g relative); in %.6g J, stored %.6g J, out %v", e.Imbalance, r, e.Sources, e.Stored, e.Out)
+	}
+	if len(h.Warnings) != 0 {
+		t.Errorf("warnings: %v", h.Warnings)
+	}
+	if h.Cycle != nil {
+		t.Errorf("a step in the rail temperature does not repeat, but a cycle was checked: %+v", h.Cycle)
+	}
+}
+
+// A repeated duty cycle settles into a periodic state; the run says after
+// how many cycles, and the peak within the settled cycle lies between the
+// steady temperatures at the mean power and at the on power.
+func TestPeriodicStateSettles(t *testing.T) {
+	net := assembleModel(t, "box.yaml", `
+ambient: {temperature: 20 degC}
+nodes:
+  - {id: part, power: {duty: {period: 100 s, on_fraction: 30 %, on: 10 W, off: 0 W}}, capacity: 100 J/K, limit: 40 degC}
+links:
+  - {from: part, to: ambient, kind: lumped, conductance: 1 W/K}
+`)
+	h, err := net.Run(network.RunOptions{End: 3000})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if h.Cycle == nil || !h.Cycle.Settled {
+		t.Fatalf("no settled cycle: %+v", h.Cycle)
+	}
+	// The cycle-to-cycle change decays as e^(−P·G/C) = e^(−1) per period
+	// from a start 3 K (the mean rise) away: below 0.01 K after about
+	// ln(300) ≈ 6 periods.
+	t.Logf("cycle %+v", *h.Cycle)
+	if h.Cycle.Cycles < 5 || h.Cycle.Cycles > 9 {
+		t.Errorf("settled after %d cycles, want about 6", h.Cycle.Cycles)
+	}
+	// The settled peak of a first-order system under a square wave:
+	// θ_peak = P_on/G·(1 − e^(−aP/τ))/(1 − e^(−P/τ)) with a the on
+	// fraction and τ = C/G (the periodic solution of C·dθ/dt = P(t) − Gθ,
+	// worked out by matching the exponentials at the switching times).
+	tau, per, a := 100.0, 100.0, 0.3
+	want := 293.15 + 10*(1-math.Exp(-a*per/tau))/(1-math.Exp(-per/tau))
+	var got float64
+	for _, p := range h.Cycle.Peaks {
+		if p.Node == "part" {
+			got = p.Temperature
+		}
+	}
+	if math.Abs(got-want) > 0.02 {
+		t.Errorf("settled peak %.4f K, want %.4f K", got, want)
+	}
+	// The limit of 40 degC is above the peak (26.7 degC): no crossing.
+	if len(h.Crossings) != 0 {
+		t.Errorf("crossings: %+v", h.Crossings)
+	}
+}
+
+// The first crossing of a limit is interpolated between steps: a node
+// heated by a step of power crosses θ = L at t = −τ·ln(1 − L·G/P).
+func TestFirstCrossing(t *testing.T) {
+	net := assembleModel(t, "box.yaml", `
+ambient: {temperature: 20 degC}
+nodes:
+  - {id: part, power: 10 W, capacity: 100 J/K, limit: 25 degC}
+links:
+  - {from: part, to: ambient, kind: lumped, conductance: 1 W/K}
+`)
+	h, err := net.Run(network.RunOptions{End: 300, RelTol: 1e-8, AbsTol: 1e-6})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(h.Crossings) != 1 {
+		t.Fatalf("crossings: %+v", h.Crossings)
+	}
+	want := -100 * math.Log(1-5.0/10)
+	// Linear interpolation between steps: within a small part of a step.
+	if got := h.Crossings[0].At; math.Abs(got-want) > 0.5 {
+		t.Errorf("crossed at %.3f s, want %.3f s", got, want)
+	}
+	// The peak is at the end.
+	for _, p := range h.Peaks {
+		if p.Node == "part" && p.At != 300 {
+			t.Errorf("peak at %g s, want 300 s", p.At)
+		}
+	}
+}
