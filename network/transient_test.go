@@ -171,3 +171,72 @@ links:
 		}
 	}
 }
+
+// Sunlight is environment heat: the steady balance lists it apart from the
+// parts' powers and still closes; a surface in the sun with a convection
+// and a sky link settles where α_s·A·G + P = hA(T − T_a) + sky loss, the
+// sky loss by εσA[F(T⁴ − T_sky⁴) + (1 − F)(T⁴ − T_a⁴)] (Incropera eq. 1.7).
+func TestSunAndSkySteadyBalance(t *testing.T) {
+	sol := solveModel(t, "box.yaml", `
+ambient: {temperature: 30 degC}
+nodes:
+  - {id: lid, power: 5 W}
+links:
+  - {id: noon, kind: sun, from: lid, absorptivity: 0.4, area: 0.1 m2, irradiance: 1000 W/m2}
+  - {id: air, kind: convection, from: lid, coefficient: 8 W/m2/K, area: 0.1 m2}
+  - {id: up, kind: sky, from: lid, emissivity: 0.9, area: 0.1 m2, view_factor: 0.5, sky_temperature: 10 degC}
+`)
+	b := sol.Balance
+	if b.In != 5 || math.Abs(b.Environment-40) > 1e-12 {
+		t.Errorf("balance in %g W, environment %g W; want 5 W and 40 W (0.4 × 0.1 m2 × 1000 W/m2)", b.In, b.Environment)
+	}
+	tl := nodeT(t, sol, "lid")
+	ta, ts := 303.15, 283.15
+	loss := 8*0.1*(tl-ta) + 0.9*5.670374419e-8*0.1*(0.5*(math.Pow(tl, 4)-math.Pow(ts, 4))+0.5*(math.Pow(tl, 4)-math.Pow(ta, 4)))
+	near(t, "heat lost by the lid", loss, 45, 1e-9)
+}
+
+// Over a day, the sun's energy is the integral of α_s·A·G(t): a table
+// rising linearly from 0 at 6 h to 1000 W/m2 at 12 h and back to 0 at
+// 18 h holds 6 h × 1000 W/m2 = 21.6 MJ/m2; on α_s·A = 0.04 m2 that is
+// 864 kJ. The run's energy closes with it counted as environment heat.
+func TestSunOverADay(t *testing.T) {
+	net := assembleModel(t, "box.yaml", `
+ambient: {temperature: 20 degC}
+nodes:
+  - {id: lid, capacity: 2 kJ/K}
+  - {id: inside, power: 3 W, capacity: 500 J/K}
+links:
+  - {from: inside, to: lid, kind: lumped, conductance: 1.5 W/K}
+  - {id: sun, kind: sun, from: lid, absorptivity: 0.4, area: 0.1 m2,
+     irradiance: {table: [[0 h, 0 W/m2], [6 h, 0 W/m2], [12 h, 1000 W/m2], [18 h, 0 W/m2]], repeat: 24 h}}
+  - {id: air, kind: convection, from: lid, coefficient: 6 W/m2/K, area: 0.1 m2}
+  - {id: up, kind: sky, from: lid, emissivity: 0.9, area: 0.1 m2, sky_model: swinbank}
+`)
+	h, err := net.Run(network.RunOptions{End: 86400, Interval: 3600})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !h.Completed() {
+		t.Fatalf("run ended: %v (%v)", h.Result.Reason, h.Result.Err)
+	}
+	if math.Abs(h.Energy.Environment-864e3) > 1e-3*864e3 {
+		t.Errorf("sun over the day %.6g J, want 864 kJ", h.Energy.Environment)
+	}
+	if want := 3.0 * 86400; math.Abs(h.Energy.Sources-want) > 1e-9*want {
+		t.Errorf("sources over the day %.6g J, want %.6g J", h.Energy.Sources, want)
+	}
+	if r := h.Energy.Relative(); r > 1e-8 {
+		t.Errorf("energy imbalance %.3g J (%.2g relative)", h.Energy.Imbalance, r)
+	}
+	// The lid is hottest in the afternoon, after the noon peak of the sun
+	// (its heat capacity delays it), and before the sun sets.
+	for _, p := range h.Peaks {
+		if p.Node == "lid" && (p.At < 12*3600 || p.At > 18*3600) {
+			t.Errorf("lid peaks at %.2f h, want between noon and 18 h", p.At/3600)
+		}
+	}
+	if h.Cycle != nil {
+		t.Logf("cycle: %+v", *h.Cycle)
+	}
+}
