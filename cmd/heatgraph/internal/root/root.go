@@ -9,6 +9,7 @@ import (
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/checkcmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/graphcmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/historycmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/kindscmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/materialscmd"
@@ -47,6 +48,7 @@ codes, product-safety standards and licensed engineering practice.`,
 		graphcmd.NewCmd(ios, nil),
 		materialscmd.NewCmd(ios),
 		kindscmd.NewCmd(ios),
+		historycmd.NewCmd(ios, nil),
 	)
 	return cmd
 }
