@@ -90,8 +90,8 @@ func TestExitStatuses(t *testing.T) {
 	assert.Contains(t, out, "verdict: no node rose above its limit")
 
 	for _, args := range [][]string{
-		{model},                                   // no --end
-		{model, "--end", "10 parsecs"},            // not a time
+		{model},                        // no --end
+		{model, "--end", "10 parsecs"}, // not a time
 		{model, "--end", "10min", "--start", "x"}, // unknown start
 		{model, "--end", "10min", "--plot", "a.pdf"},
 		{model, "--end", "10min", "--nodes", "prt"},
