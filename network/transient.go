@@ -52,6 +52,9 @@ type RunOptions struct {
 	FixedStep, RelTol, AbsTol, FirstStep float64
 	// Linear solves the stage systems; default solve.Auto.
 	Linear solve.LinearSolver
+	// ModifiedNewton keeps the stage matrix's factorization while it
+	// serves (see solve.TransientSettings).
+	ModifiedNewton bool
 	// Progress, when not nil, is called after every step with the fraction
 	// of the run done.
 	Progress func(done float64)
@@ -211,7 +214,7 @@ func (net *Network) Run(o RunOptions) (*History, error) {
 	acc.start(x0)
 	settings := solve.TransientSettings{
 		End: o.End, Outputs: outs, FixedStep: o.FixedStep, RelTol: o.RelTol, AbsTol: o.AbsTol,
-		FirstStep: o.FirstStep, Linear: o.Linear,
+		FirstStep: o.FirstStep, Linear: o.Linear, ModifiedNewton: o.ModifiedNewton,
 		Output: func(t float64, x []float64) error {
 			if !onGrid(t, o.Interval) && t != 0 && t != o.End {
 				if cyc != nil {

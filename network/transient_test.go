@@ -72,7 +72,13 @@ links:
   - {from: lid, to: rail, kind: lumped, conductance: 0.3 W/K}
   - {from: lid, kind: radiation, emissivity: 0.9, area: 0.05 m2}
 `)
-	h, err := net.Run(network.RunOptions{End: 600, Start: network.FromSteady})
+	for _, modified := range []bool{false, true} {
+		runEnergy(t, net, modified)
+	}
+}
+
+func runEnergy(t *testing.T, net *network.Network, modified bool) {
+	h, err := net.Run(network.RunOptions{End: 600, Start: network.FromSteady, ModifiedNewton: modified})
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -84,7 +90,7 @@ links:
 	if want := 600*1.0 + 10*29*3; math.Abs(e.Sources-want) > 1e-9*want {
 		t.Errorf("heat from sources %.9g J, want %.9g J (the profile's integral)", e.Sources, want)
 	}
-	t.Logf("imbalance %.3g J relative %.3g, steps %d", e.Imbalance, e.Relative(), h.Result.Steps)
+	t.Logf("modified Newton %v: imbalance %.3g J relative %.3g, steps %d, factorizations %d", modified, e.Imbalance, e.Relative(), h.Result.Steps, h.Result.Factorized)
 	if r := e.Relative(); r > 1e-8 {
 		t.Errorf("energy imbalance %.3g J (%.2g relative); in %.6g J, stored %.6g J, out %v", e.Imbalance, r, e.Sources, e.Stored, e.Out)
 	}

@@ -117,6 +117,13 @@ type TransientSettings struct {
 	// NewtonTol is the largest Newton correction, relative to the error
 	// tolerance, at which a stage is converged. Default 1e-2.
 	NewtonTol float64
+	// ModifiedNewton keeps the Jacobian and its factorization across
+	// iterations and steps for as long as the step is unchanged and each
+	// correction is at most half the one before, and refreshes it
+	// otherwise (a stage that fails with an old factorization is solved
+	// again with a fresh one). For large networks, whose factorizations
+	// cost far more than their evaluations.
+	ModifiedNewton bool
 	// Linear solves the stage systems; default Auto(n). It analyses the
 	// pattern once per run.
 	Linear LinearSolver
@@ -240,7 +247,9 @@ type integrator struct {
 	tol    []Tolerance // per unknown
 	alg    []bool      // algebraic rows
 
-	x, xg, x1, xp []float64 // state at t_n, at the γ stage, at t_{n+1}, Newton work
+	x, xg, x1, xs []float64 // state at t_n, at the γ stage, at t_{n+1}, a stage's start
+	factored      bool      // the factorization is of aM − J with a = factA
+	factA         float64
 	e0, eg, ek, e []float64
 	f0, fg, f1, f []float64
 	rhs, dx, d    []float64
@@ -281,7 +290,7 @@ func newIntegrator(p Transient, x0 []float64, s TransientSettings) *integrator {
 	it := &integrator{p: p, s: s, n: n, kinds: p.Kinds()}
 	vec := func() []float64 { return make([]float64, n) }
 	it.x = append(vec()[:0], x0...)
-	it.xg, it.x1, it.xp = vec(), vec(), vec()
+	it.xg, it.x1, it.xs = vec(), vec(), vec()
 	it.e0, it.eg, it.ek, it.e = vec(), vec(), vec(), vec()
 	it.f0, it.fg, it.f1, it.f = vec(), vec(), vec(), vec()
 	it.rhs, it.dx, it.d, it.est = vec(), vec(), vec(), vec()
@@ -605,13 +614,45 @@ func (it *integrator) step(t, h float64, jumpStart, jumpEnd bool) (float64, bool
 // rhs on the rows with storage (nil for zero): algebraic rows are
 // F(x, t) = 0 at every stage. It returns the iterations taken.
 func (it *integrator) newton(x []float64, t, a float64, ek, rhs []float64) (int, error) {
+	if !it.s.ModifiedNewton {
+		return it.iterate(x, t, a, ek, rhs, true, true)
+	}
+	// Modified Newton: keep the factorization while it serves; on
+	// failure, start the stage again with a fresh one.
+	copy(it.xs, x)
+	// Steps that differ by round-off (a fixed step landing on an output)
+	// share the factorization.
+	stale := !(it.factored && math.Abs(it.factA-a) <= 1e-9*a)
+	k, err := it.iterate(x, t, a, ek, rhs, stale, false)
+	if err == nil || stale {
+		return k, err
+	}
+	var le *linearError
+	if errors.As(err, &le) {
+		return k, err
+	}
+	copy(x, it.xs)
+	k2, err := it.iterate(x, t, a, ek, rhs, true, true)
+	return k + k2, err
+}
+
+// iterate runs the Newton iterations of one stage. With always, it forms
+// and factorizes the matrix at every iteration; otherwise (modified
+// Newton) at the first only when fresh, and later only when a correction
+// fails to shrink to half the one before.
+func (it *integrator) iterate(x []float64, t, a float64, ek, rhs []float64, fresh, always bool) (int, error) {
 	p := it.p
+	prev := math.Inf(1)
 	for k := 1; k <= it.s.MaxNewton; k++ {
 		it.res.Newton++
-		if err := p.Evaluate(x, it.f, it.jac, nil); err != nil {
+		var jac, m *sparse.Matrix
+		if fresh {
+			jac, m = it.jac, it.m
+		}
+		if err := p.Evaluate(x, it.f, jac, nil); err != nil {
 			return k, err
 		}
-		if err := p.Stored(x, it.e, it.m); err != nil {
+		if err := p.Stored(x, it.e, m); err != nil {
 			return k, err
 		}
 		// Residual G and matrix aM − J.
@@ -625,32 +666,13 @@ func (it *integrator) newton(x []float64, t, a float64, ek, rhs []float64) (int,
 			}
 			it.rhs[i] = -g
 		}
-		for k2 := range it.a.Val {
-			it.a.Val[k2] = a*it.m.Val[k2] - it.jac.Val[k2]
-		}
-		for i := 0; i < it.n; i++ {
-			dii := 0.0
-			if k2 := it.a.Index(i, i); k2 >= 0 {
-				dii = math.Abs(it.a.Val[k2])
-			}
-			if dii > 0 && !math.IsInf(dii, 0) {
-				it.d[i] = 1 / math.Sqrt(dii)
-			} else {
-				it.d[i] = 1
-			}
-		}
-		for i := 0; i < it.n; i++ {
-			for k2 := it.a.RowPtr[i]; k2 < it.a.RowPtr[i+1]; k2++ {
-				it.a.Val[k2] *= it.d[i] * it.d[it.a.Col[k2]]
-			}
-			it.rhs[i] *= it.d[i]
-		}
-		it.res.Factorized++
-		if err := it.lin.Factorize(it.a); err != nil {
-			if errors.Is(err, ErrSingular) {
+		if fresh {
+			if err := it.factorize(a); err != nil {
 				return k, err
 			}
-			return k, &linearError{err}
+		}
+		for i := range it.rhs {
+			it.rhs[i] *= it.d[i]
 		}
 		if err := it.lin.Solve(it.dx, it.rhs); err != nil {
 			return k, &linearError{err}
@@ -669,6 +691,42 @@ func (it *integrator) newton(x []float64, t, a float64, ek, rhs []float64) (int,
 			// error estimate: the change since is within NewtonTol.
 			return k, nil
 		}
+		fresh = always || worst > prev/2
+		prev = worst
 	}
 	return it.s.MaxNewton, fmt.Errorf("a stage did not converge in %d Newton iterations at t = %g s", it.s.MaxNewton, t)
+}
+
+// factorize forms D(aM − J)D from the last evaluated Jacobian and
+// capacities, with D_ii = 1/√|aM − J|_ii, and factorizes it.
+func (it *integrator) factorize(a float64) error {
+	for k2 := range it.a.Val {
+		it.a.Val[k2] = a*it.m.Val[k2] - it.jac.Val[k2]
+	}
+	for i := 0; i < it.n; i++ {
+		dii := 0.0
+		if k2 := it.a.Index(i, i); k2 >= 0 {
+			dii = math.Abs(it.a.Val[k2])
+		}
+		if dii > 0 && !math.IsInf(dii, 0) {
+			it.d[i] = 1 / math.Sqrt(dii)
+		} else {
+			it.d[i] = 1
+		}
+	}
+	for i := 0; i < it.n; i++ {
+		for k2 := it.a.RowPtr[i]; k2 < it.a.RowPtr[i+1]; k2++ {
+			it.a.Val[k2] *= it.d[i] * it.d[it.a.Col[k2]]
+		}
+	}
+	it.res.Factorized++
+	it.factored = false
+	if err := it.lin.Factorize(it.a); err != nil {
+		if errors.Is(err, ErrSingular) {
+			return err
+		}
+		return &linearError{err}
+	}
+	it.factored, it.factA = true, a
+	return nil
 }

@@ -366,3 +366,41 @@ func TestJumpsAreNotSkipped(t *testing.T) {
 		t.Errorf("rise %.6g K, want 2.5 K", rise)
 	}
 }
+
+// Modified Newton gives the same steps (to the Newton tolerance) with far
+// fewer factorizations: on a linear network at fixed steps, one for the
+// whole run.
+func TestModifiedNewtonReusesFactorization(t *testing.T) {
+	mk := func() *linearRC {
+		return &linearRC{c: []float64{20, 150}, k: [][]float64{{2, -2}, {-2, 2.5}}, ga: []float64{0, 0.5}, ta: 290,
+			power: func(tt float64) []float64 { return []float64{10 + 5*math.Sin(tt/40), 0} }}
+	}
+	full := TRBDF2(mk(), []float64{290, 290}, TransientSettings{End: 1000, FixedStep: 5, NewtonTol: 1e-10})
+	mod := TRBDF2(mk(), []float64{290, 290}, TransientSettings{End: 1000, FixedStep: 5, NewtonTol: 1e-10, ModifiedNewton: true})
+	if !full.Reason.Completed() || !mod.Reason.Completed() {
+		t.Fatalf("runs ended: %v, %v", full.Reason, mod.Reason)
+	}
+	for i := range full.X {
+		if d := math.Abs(full.X[i] - mod.X[i]); d > 1e-8 {
+			t.Errorf("node %d: %.10g K with Newton, %.10g K with modified Newton", i, full.X[i], mod.X[i])
+		}
+	}
+	// The consistent start factorizes with its own (tiny) step, the run
+	// once more.
+	if mod.Factorized > 2 {
+		t.Errorf("modified Newton factorized %d times, want 2 (start and run)", mod.Factorized)
+	}
+	t.Logf("factorizations: %d with Newton, %d modified", full.Factorized, mod.Factorized)
+	// Adaptive steps: the same accuracy against the eigen-solution test's
+	// tolerance, with fewer factorizations.
+	adapt := TRBDF2(mk(), []float64{290, 290}, TransientSettings{End: 1000, RelTol: 1e-7, AbsTol: 1e-6})
+	adaptMod := TRBDF2(mk(), []float64{290, 290}, TransientSettings{End: 1000, RelTol: 1e-7, AbsTol: 1e-6, ModifiedNewton: true})
+	for i := range adapt.X {
+		if d := math.Abs(adapt.X[i] - adaptMod.X[i]); d > 1e-4 {
+			t.Errorf("adaptive, node %d: %.8g K with Newton, %.8g K modified", i, adapt.X[i], adaptMod.X[i])
+		}
+	}
+	if adaptMod.Factorized >= adapt.Factorized {
+		t.Errorf("modified Newton factorized %d times, Newton %d", adaptMod.Factorized, adapt.Factorized)
+	}
+}

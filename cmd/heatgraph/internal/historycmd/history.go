@@ -43,6 +43,10 @@ type Options struct {
 	Progress *bool
 }
 
+// largeNetwork is the number of unknowns above which a run uses modified
+// Newton iterations.
+const largeNetwork = 500
+
 // Starts lists the ways a run may start.
 var Starts = []string{string(network.FromAmbient), string(network.FromSteady), string(network.FromGiven)}
 
@@ -129,6 +133,9 @@ func Run(o *Options) error {
 	} else if len(o.Initial) > 0 {
 		return exit.With(exit.BadInput, "--initial needs --start given")
 	}
+	// Large networks keep the stage matrix's factorization while it
+	// serves: there a factorization costs far more than an evaluation.
+	ro.ModifiedNewton = net.Unknowns() > largeNetwork
 	bar := o.progressBar()
 	if bar != nil {
 		ro.Progress = func(done float64) { _ = bar.Set(int(math.Round(1000 * done))) }
