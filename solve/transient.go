@@ -194,9 +194,13 @@ var (
 	// the BDF2 stage: E₁ − βE_γ + δE₀ = wEnd·h·F₁.
 	beta  = 1 / (gamma * (2 - gamma))
 	delta = (1 - gamma) * (1 - gamma) / (gamma * (2 - gamma))
-	// the error constant of TR-BDF2's local error, C·h³·y‴, doubled:
-	// (−3γ² + 4γ − 2)/(6(2 − γ)) (Hosea & Shampine 1996, eq. for the
-	// estimate; Bank et al. 1985 for C).
+	// errConst·h·[F₀/γ − F_γ/(γ(1−γ)) + F₁/(1−γ)] is the method's error
+	// constant (−3γ² + 4γ − 2)/(12(2 − γ)) (Bank et al. 1985) times h³y‴
+	// taken from the second divided difference of the stage flows. It is
+	// the same as Hosea & Shampine's estimate, h·Σ(b̂ᵢ − bᵢ)·Fᵢ, the
+	// difference between TR-BDF2's weights b = (w, w, d) and those of their
+	// embedded third-order formula b̂ = ((1 − w)/3, w + 1/3, d/3), with
+	// w = √2/4 and d = γ/2 (checked in the tests).
 	errConst = (-3*gamma*gamma + 4*gamma - 2) / (6 * (2 - gamma))
 )
 

@@ -404,3 +404,23 @@ func TestModifiedNewtonReusesFactorization(t *testing.T) {
 		t.Errorf("modified Newton factorized %d times, Newton %d", adaptMod.Factorized, adapt.Factorized)
 	}
 }
+
+// The error estimate's weights are those of Hosea & Shampine (Analysis
+// and implementation of TR-BDF2, Appl. Numer. Math. 20, 1996): the
+// difference of their embedded third-order weights b̂ = ((1 − w)/3,
+// w + 1/3, d/3) and TR-BDF2's b = (w, w, d), w = √2/4, d = γ/2; and the
+// stage weights used for the energy over a step are b.
+func TestHoseaShampineWeights(t *testing.T) {
+	w, d := math.Sqrt2/4, gamma/2
+	b := [3]float64{w, w, d}
+	bh := [3]float64{(1 - w) / 3, w + 1.0/3, d / 3}
+	ours := [3]float64{errConst / gamma, -errConst / (gamma * (1 - gamma)), errConst / (1 - gamma)}
+	for i := range b {
+		if math.Abs(ours[i]-(bh[i]-b[i])) > 1e-15 {
+			t.Errorf("estimate weight %d: %.17g, want b̂ − b = %.17g", i, ours[i], bh[i]-b[i])
+		}
+	}
+	if math.Abs(wTrap-w) > 1e-15 || math.Abs(wEnd-d) > 1e-15 {
+		t.Errorf("stage weights (%g, %g, %g), want (w, w, d) = (%g, %g, %g)", wTrap, wTrap, wEnd, w, w, d)
+	}
+}
