@@ -83,6 +83,7 @@ func init() {
 		},
 		defaultTo: AmbientID,
 		parse:     parseSun,
-		ends:      []endRule{{"from", "the sunlit surface", solidKinds}},
+		ends: []endRule{{"from", "the sunlit surface", solidKinds},
+			{"to", "where the light comes from, for reports only", []NodeKind{Fixed, Solid, Junction, Air}}},
 	})
 }

@@ -123,3 +123,16 @@ func TestStartFromGiven(t *testing.T) {
 	assert.Contains(t, out, "start: given temperatures")
 	assert.Regexp(t, `part\s+50\.00\s+50\.00\s+0 s`, out)
 }
+
+// The progress bar goes to standard error when asked for (by default only
+// when standard error is a terminal); standard output keeps the report.
+func TestProgressBar(t *testing.T) {
+	_, model := writeModel(t, "60 degC")
+	ios, _, out, errOut := iostreams.Test()
+	on := true
+	err := historycmd.Run(&historycmd.Options{IO: ios, Model: model, End: "60s", Start: "ambient", CycleTol: "0.01 K", Progress: &on})
+	require.NoError(t, err)
+	assert.Contains(t, errOut.String(), "run")
+	assert.Contains(t, errOut.String(), "100%")
+	assert.NotContains(t, out.String(), "100%")
+}
