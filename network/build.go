@@ -230,12 +230,20 @@ func (m *Model) isolated() Problems {
 			join(l.From, o)
 		}
 	}
+	// An enclosure joins only the surfaces that see each other, and a
+	// surface to its open_to node only when part of its view is left to
+	// it: the radiosity exchange between two nodes is non-zero exactly
+	// when a chain of non-zero view factors joins them.
 	for _, e := range m.Enclosures {
-		for _, s := range e.Surfaces {
-			join(e.Surfaces[0].Node, s.Node)
-		}
-		if e.OpenTo != "" {
-			join(e.Surfaces[0].Node, e.OpenTo)
+		for i, s := range e.Surfaces {
+			for j, t := range e.Surfaces {
+				if e.sees(i, j) {
+					join(s.Node, t.Node)
+				}
+			}
+			if e.toOpen(i) {
+				join(s.Node, e.OpenTo)
+			}
 		}
 	}
 	anchored := map[int]bool{}

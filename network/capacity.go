@@ -3,7 +3,7 @@ package network
 import (
 	"github.com/heatgraph/heatgraph/elements/air"
 	"github.com/heatgraph/heatgraph/elements/dual"
-	"github.com/heatgraph/heatgraph/network/units"
+	"github.com/heatgraph/heatgraph/units"
 )
 
 // capacityKeys are the keys with which a solid node or a component states

@@ -7,7 +7,7 @@ import (
 
 	"github.com/heatgraph/heatgraph/elements"
 	"github.com/heatgraph/heatgraph/elements/viewfactor"
-	"github.com/heatgraph/heatgraph/network/units"
+	"github.com/heatgraph/heatgraph/units"
 	"gopkg.in/yaml.v3"
 )
 
@@ -90,15 +90,48 @@ func (r *reader) readEnclosures(n *yaml.Node, ids map[string]nodeRef) []Enclosur
 		// problem, so that one pass finds everything.
 		if r.readViews(o, vv, &e) && okAll {
 			out = append(out, e)
+			continue
 		}
+		// Which nodes the enclosure joins is not known: do not guess at
+		// nodes without a path to a fixed temperature.
+		r.broken = true
 	}
 	return out
 }
 
+// maxSurfaces is the most surfaces an enclosure may have: its view factors
+// and radiosity equations grow with the square of the number, and a
+// lumped model of a box needs tens, not thousands (a rule of thumb).
+const maxSurfaces = 500
+
+// openEps is the smallest part of a surface's view left to open_to that
+// counts as exchange with it.
+const openEps = 1e-9
+
+// toOpen reports whether surface i of e sees its open_to node.
+func (e *EnclosureSpec) toOpen(i int) bool {
+	if e.OpenTo == "" {
+		return false
+	}
+	rest := 1.0
+	for _, f := range e.View[i] {
+		rest -= f
+	}
+	return rest > openEps
+}
+
+// sees reports whether surface i of e sees surface j, another surface.
+func (e *EnclosureSpec) sees(i, j int) bool { return i != j && e.View[i][j] > 0 }
+
 func (r *reader) readSurfaces(o *object, n *yaml.Node, e *EnclosureSpec, ids map[string]nodeRef, names []string) bool {
 	ok := true
 	byName := map[string]bool{}
-	for i, item := range r.list(n, o.field("surfaces"), "entries with node, emissivity and area") {
+	items := r.list(n, o.field("surfaces"), "entries with node, emissivity and area")
+	if len(items) > maxSurfaces {
+		r.addf(n, o.field("surfaces"), "%d surfaces; an enclosure takes 2 to %d (merge small surfaces of one node into one)", len(items), maxSurfaces)
+		return false
+	}
+	for i, item := range items {
 		so := r.newObject(item, o.field("surfaces")+"["+itoa(i)+"]")
 		if so == nil {
 			ok = false
@@ -225,6 +258,30 @@ func (r *reader) readViews(o *object, n *yaml.Node, e *EnclosureSpec) bool {
 			r.addf(n, o.field("view_factors"), "the view factors from %q add up to %.4g; in a closed enclosure they must add up to 1 (add the missing ones, or name the surroundings that see the rest with open_to)", names[i], sum)
 			ok = false
 		}
+	}
+	return ok && r.checkExchange(o, e)
+}
+
+// checkExchange reports every surface that sees only itself: with no view
+// factor to another surface and nothing of its view left for open_to, it
+// exchanges no radiation, and its node may be joined to nothing.
+func (r *reader) checkExchange(o *object, e *EnclosureSpec) bool {
+	ok := true
+	for i, s := range e.Surfaces {
+		any := e.toOpen(i)
+		for j := range e.Surfaces {
+			any = any || e.sees(i, j)
+		}
+		if any {
+			continue
+		}
+		why := fmt.Sprintf("its view factor to itself is %.4g", e.View[i][i])
+		if e.OpenTo != "" {
+			why += ", which leaves nothing for open_to"
+		}
+		r.problems = append(r.problems, Problem{File: r.file, Line: s.Line, Field: o.field("surfaces") + "[" + itoa(i) + "]",
+			Message: fmt.Sprintf("surface %q sees only itself (%s), so it exchanges no radiation with any other node; give the view factors from it to the surfaces it sees, or leave it out of the enclosure", s.Name, why)})
+		ok = false
 	}
 	return ok
 }

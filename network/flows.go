@@ -28,15 +28,27 @@ func (l *LinkSpec) airflow() (up, down string, mdot float64, ok bool) {
 // its energy balance to mean anything.
 func (m *Model) unbalancedAir() Problems {
 	in, out := map[string]float64{}, map[string]float64{}
+	// unknown holds the nodes that a stream or channel whose values could
+	// not be read runs through: their balance is not known, and the
+	// link's own problem is reported already.
+	unknown := map[string]bool{}
 	for i := range m.Links {
-		if up, down, f, ok := m.Links[i].airflow(); ok {
+		l := &m.Links[i]
+		if l.Params == nil && (l.Kind == "stream" || l.Kind == "channel") {
+			unknown[l.From], unknown[l.To] = true, true
+			for _, o := range l.Others {
+				unknown[o] = true
+			}
+			continue
+		}
+		if up, down, f, ok := l.airflow(); ok {
 			out[up] += f
 			in[down] += f
 		}
 	}
 	var ps Problems
 	for _, n := range m.Nodes {
-		if n.Kind != Air {
+		if n.Kind != Air || unknown[n.ID] {
 			continue
 		}
 		a, b := in[n.ID], out[n.ID]

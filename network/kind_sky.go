@@ -2,7 +2,7 @@ package network
 
 import (
 	"github.com/heatgraph/heatgraph/elements"
-	"github.com/heatgraph/heatgraph/network/units"
+	"github.com/heatgraph/heatgraph/units"
 )
 
 // SkyParams is long-wave radiation from an outside surface to the sky and

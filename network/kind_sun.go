@@ -1,10 +1,8 @@
 package network
 
 import (
-	"fmt"
-
 	"github.com/heatgraph/heatgraph/elements"
-	"github.com/heatgraph/heatgraph/network/units"
+	"github.com/heatgraph/heatgraph/units"
 )
 
 // SunParams is sunlight absorbed by an outside surface.
@@ -38,30 +36,6 @@ func parseSun(o *object, _ *Model) LinkParams {
 		return nil
 	}
 	return &SunParams{Absorptivity: a, Area: area, Irradiance: g, Profile: prof}
-}
-
-// profileLowest returns the lowest value a profile takes (the constant c
-// when p is nil).
-func profileLowest(p Profile, c float64) float64 {
-	switch v := p.(type) {
-	case nil:
-		return c
-	case *StepProfile:
-		return min(v.Before, v.After)
-	case *PulseProfile:
-		return min(v.Base, v.Peak)
-	case *DutyProfile:
-		return min(v.On, v.Off)
-	case *TableProfile:
-		low := v.V[0]
-		for _, x := range v.V {
-			low = min(low, x)
-		}
-		return low
-	case *RepeatProfile:
-		return profileLowest(v.Of, c)
-	}
-	panic(fmt.Sprintf("network: profile %T has no lowest value", p))
 }
 
 func init() {

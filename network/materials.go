@@ -1,7 +1,7 @@
 package network
 
 import (
-	"github.com/heatgraph/heatgraph/network/units"
+	"github.com/heatgraph/heatgraph/units"
 	"gopkg.in/yaml.v3"
 )
 

@@ -6,8 +6,8 @@ import (
 	"testing"
 
 	"github.com/heatgraph/heatgraph/elements"
-	"github.com/heatgraph/heatgraph/network/units"
 	"github.com/heatgraph/heatgraph/solve"
+	"github.com/heatgraph/heatgraph/units"
 )
 
 // This test follows the walkthrough in DEVELOPERS.md ("Adding a link

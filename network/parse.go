@@ -2,68 +2,48 @@ package network
 
 import (
 	"bytes"
-	"errors"
 	"fmt"
-	"os"
-	"regexp"
 	"strconv"
 	"strings"
 
 	"github.com/heatgraph/heatgraph/elements/air"
-	"github.com/heatgraph/heatgraph/network/units"
+	"github.com/heatgraph/heatgraph/units"
 	"gopkg.in/yaml.v3"
 )
 
 // FormatVersion is the model format version this build reads.
 const FormatVersion = 1
 
-var topKeys = []string{"heatgraph", "title", "ambient", "required_margin", "materials", "nodes", "components", "links", "enclosures"}
-
-// ReadFile reads and checks a model file. On invalid input the error is a
-// Problems list naming every problem found, each with its line.
-func ReadFile(path string) (*Model, error) {
-	data, err := os.ReadFile(path)
-	if err != nil {
-		return nil, Problems{{File: path, Message: readError(err)}}
-	}
-	return Parse(path, data)
-}
-
-func readError(err error) string {
-	switch {
-	case os.IsNotExist(err):
-		return "no such file"
-	case os.IsPermission(err):
-		return "permission denied"
-	}
-	var pe *os.PathError
-	if errors.As(err, &pe) {
-		return pe.Err.Error()
-	}
-	return err.Error()
-}
+var topKeys = []string{"heatgraph", "title", "ambient", "required_margin", "materials", "nodes", "components", "links", "enclosures", "shared"}
 
 // Parse reads a model from data; file names it in messages.
 func Parse(file string, data []byte) (*Model, error) {
-	r := &reader{file: file}
+	r := &reader{file: file, budget: len(data)/2 + 100000}
 	m := &Model{File: file, Materials: BuiltinMaterials()}
+	if line, msg := checkText(data); msg != "" {
+		r.problems = append(r.problems, Problem{File: file, Line: line, Message: msg})
+		return nil, r.finish()
+	}
 	if len(bytes.TrimSpace(data)) == 0 {
 		r.addf(nil, "", "the model is empty (it needs at least ambient: and nodes:, see the examples folder)")
-		return nil, r.problems
+		return nil, r.finish()
 	}
-	var doc yaml.Node
-	if err := yaml.Unmarshal(data, &doc); err != nil {
-		line, msg := yamlError(err)
+	docs, err := decodeAll(data)
+	if err != nil {
+		line, msg := syntaxProblem(data, err)
 		r.problems = append(r.problems, Problem{File: file, Line: line, Field: "syntax", Message: msg})
-		return nil, r.problems
+		return nil, r.finish()
 	}
-	if len(doc.Content) == 0 {
+	if len(docs) == 0 || len(docs[0].Content) == 0 {
 		r.addf(nil, "", "the model is empty (it needs at least ambient: and nodes:, see the examples folder)")
-		return nil, r.problems
+		return nil, r.finish()
 	}
-	top := r.newObject(doc.Content[0], "")
+	if len(docs) > 1 {
+		r.addf(docs[1], "syntax", "%s", secondDocument)
+	}
+	top := r.newObject(docs[0].Content[0], "")
 	if top == nil {
-		return nil, r.problems
+		return nil, r.finish()
 	}
 	top.checkKeys(topKeys, "the top level")
 	if v, ok := top.str("heatgraph"); ok && v != strconv.Itoa(FormatVersion) {
@@ -105,25 +85,9 @@ func Parse(file string, data []byte) (*Model, error) {
 		r.problems = append(r.problems, m.unbalancedAir()...)
 	}
 	if len(r.problems) > 0 {
-		return nil, r.problems.sorted()
+		return nil, r.finish()
 	}
 	return m, nil
-}
-
-var yamlLine = regexp.MustCompile(`^yaml: line (\d+): (.*)$`)
-
-// yamlError turns a yaml.v3 error into a line and a message.
-func yamlError(err error) (int, string) {
-	msg := err.Error()
-	if te, ok := err.(*yaml.TypeError); ok && len(te.Errors) > 0 {
-		msg = te.Errors[0]
-	}
-	msg = strings.TrimPrefix(msg, "yaml: unmarshal errors:\n  ")
-	if m := yamlLine.FindStringSubmatch(msg); m != nil {
-		line, _ := strconv.Atoi(m[1])
-		return line, m[2] + " (check the indentation and that every key is followed by a colon and a space)"
-	}
-	return 0, strings.TrimPrefix(msg, "yaml: ")
 }
 
 var ambientKeys = []string{"temperature", "pressure", "altitude"}
@@ -222,14 +186,14 @@ func (r *reader) readNodes(n *yaml.Node, m *Model, ids map[string]nodeRef) []Nod
 		case Solid:
 			o.checkKeys(append(solidKeys, capacityKeys...), "a solid node")
 			spec.Power, spec.PowerProfile, _ = o.varying("power", units.Power, false)
-			spec.Limit, spec.HasLimit = o.quantity("limit", units.Temperature)
+			spec.Limit, spec.HasLimit = o.temperature("limit", false)
 			spec.Capacity = readCapacity(o, m)
 		case Air:
 			if o.has("power") {
 				r.addf(o.values["power"], o.field("power"), "an air node takes no heat input; put the heat on a solid node that convects to it")
 			}
 			o.checkKeys(append(append(airKeys, "power"), airCapacityKeys...), "an air node")
-			spec.Limit, spec.HasLimit = o.quantity("limit", units.Temperature)
+			spec.Limit, spec.HasLimit = o.temperature("limit", false)
 			spec.Capacity = readAirCapacity(o, m)
 		case Fixed:
 			if o.has("power") {
@@ -267,7 +231,7 @@ func (r *reader) readComponents(n *yaml.Node, m *Model, ids map[string]nodeRef) 
 		c.ID = id
 		c.Note, _ = o.str("note")
 		c.Power, c.PowerProfile, _ = o.varying("power", units.Power, true)
-		c.Limit, c.HasLimit = o.quantity("limit", units.Temperature)
+		c.Limit, c.HasLimit = o.temperature("limit", false)
 		c.Capacity = readCapacity(o, m)
 		c.Case, _ = o.str("case")
 		c.Board, _ = o.str("board")

@@ -244,3 +244,50 @@ func (net *Network) Jumps(from, to float64) []float64 {
 
 // Profiles reports whether anything in the network changes with time.
 func (net *Network) Profiles() bool { return len(net.profiles) > 0 }
+
+// profileLowest returns the lowest value a profile takes (the constant c
+// when p is nil).
+func profileLowest(p Profile, c float64) float64 {
+	switch v := p.(type) {
+	case nil:
+		return c
+	case *StepProfile:
+		return min(v.Before, v.After)
+	case *PulseProfile:
+		return min(v.Base, v.Peak)
+	case *DutyProfile:
+		return min(v.On, v.Off)
+	case *TableProfile:
+		low := v.V[0]
+		for _, x := range v.V {
+			low = min(low, x)
+		}
+		return low
+	case *RepeatProfile:
+		return profileLowest(v.Of, c)
+	}
+	panic(fmt.Sprintf("network: profile %T has no lowest value", p))
+}
+
+// profileHighest returns the highest value a profile takes.
+func profileHighest(p Profile, c float64) float64 {
+	switch v := p.(type) {
+	case nil:
+		return c
+	case *StepProfile:
+		return max(v.Before, v.After)
+	case *PulseProfile:
+		return max(v.Base, v.Peak)
+	case *DutyProfile:
+		return max(v.On, v.Off)
+	case *TableProfile:
+		high := v.V[0]
+		for _, x := range v.V {
+			high = max(high, x)
+		}
+		return high
+	case *RepeatProfile:
+		return profileHighest(v.Of, c)
+	}
+	panic(fmt.Sprintf("network: profile %T has no highest value", p))
+}

@@ -5,12 +5,13 @@ import (
 	"bytes"
 	"errors"
 	"fmt"
+	"math"
 	"os"
 	"path/filepath"
 	"regexp"
 	"strings"
 
-	"github.com/heatgraph/heatgraph/network/units"
+	"github.com/heatgraph/heatgraph/units"
 	"gopkg.in/yaml.v3"
 )
 
@@ -48,7 +49,16 @@ func (o *object) varying(key string, kind units.Kind, need bool) (float64, Profi
 		return 0, nil, false
 	}
 	if v.Kind != yaml.MappingNode {
-		x, ok := o.quantity(key, kind)
+		var x float64
+		var ok bool
+		switch kind {
+		case units.Temperature:
+			x, ok = o.temperature(key, need)
+		case units.Power:
+			x, ok = o.power(key, need)
+		default:
+			x, ok = o.quantity(key, kind)
+		}
 		return x, nil, ok
 	}
 	po := o.r.newObject(v, o.field(key))
@@ -57,6 +67,16 @@ func (o *object) varying(key string, kind units.Kind, need bool) (float64, Profi
 	}
 	p := po.profile(kind)
 	if p == nil {
+		return 0, nil, false
+	}
+	// The same ranges as constants.
+	lo, hi := profileLowest(p, 0), profileHighest(p, 0)
+	switch {
+	case kind == units.Temperature && (lo < minTemperature || hi > maxTemperature):
+		o.r.addf(v, o.field(key), "the profile reaches %g K to %g K; a temperature in a model must lie between %g K and %g K", lo, hi, float64(minTemperature), float64(maxTemperature))
+		return 0, nil, false
+	case kind == units.Power && (math.Abs(lo) > maxPower || math.Abs(hi) > maxPower):
+		o.r.addf(v, o.field(key), "the profile reaches %g W to %g W, outside the range a model takes for a heat input, -1 MW to 1 MW", lo, hi)
 		return 0, nil, false
 	}
 	return p.At(0), p, true

@@ -3,12 +3,13 @@ package network
 import (
 	"errors"
 	"fmt"
+	"math"
 	"regexp"
 	"sort"
 	"strconv"
 	"strings"
 
-	"github.com/heatgraph/heatgraph/network/units"
+	"github.com/heatgraph/heatgraph/units"
 	"gopkg.in/yaml.v3"
 )
 
@@ -21,6 +22,12 @@ type reader struct {
 	// no path to a fixed temperature is then skipped, as it would only
 	// echo the first problem.
 	broken bool
+	// budget is how many more keys and list entries the reader may visit.
+	// Without aliases a file cannot hold more than its size allows; with
+	// them a small file could name the same large value millions of
+	// times, so reading stops when the budget runs out.
+	budget    int
+	exhausted bool
 }
 
 // addf records a problem at the line of n (0 when n is nil).
@@ -30,6 +37,45 @@ func (r *reader) addf(n *yaml.Node, field, format string, args ...any) {
 		line = n.Line
 	}
 	r.problems = append(r.problems, Problem{File: r.file, Line: line, Field: field, Message: fmt.Sprintf(format, args...)})
+}
+
+// spend takes n from the budget; it reports false (and the problem, once)
+// when the budget is exhausted.
+func (r *reader) spend(n int) bool {
+	if r.exhausted {
+		return false
+	}
+	r.budget -= n
+	if r.budget < 0 {
+		r.exhausted = true
+		r.broken = true
+		r.addf(nil, "", "aliases (*name) and merge keys (<<) repeat values so often that the model would exceed what a file of this size can hold; share fewer values, or write them out")
+		return false
+	}
+	return true
+}
+
+// maxProblems is the most problems reported for one file; a file that has
+// more is likely not a model at all.
+const maxProblems = 200
+
+// finish returns the problems in line order, with long values shortened,
+// and at most maxProblems of them.
+func (r *reader) finish() Problems {
+	ps := r.problems.sorted()
+	if len(ps) > maxProblems {
+		more := len(ps) - maxProblems
+		ps = append(ps[:maxProblems], Problem{File: r.file, Message: fmt.Sprintf("%d more problems not listed (is this a model file?)", more)})
+	}
+	return ps
+}
+
+// deref follows aliases to the value they name.
+func deref(n *yaml.Node) *yaml.Node {
+	for i := 0; n != nil && n.Kind == yaml.AliasNode && n.Alias != nil && i < 64; i++ {
+		n = n.Alias
+	}
+	return n
 }
 
 // object reads one YAML mapping: it hands out values by key, checks their
@@ -47,15 +93,28 @@ type object struct {
 }
 
 // newObject checks that n is a mapping and indexes its keys; duplicate keys
-// are reported. It returns nil (after reporting) when n is not a mapping.
+// are reported. Merge keys (<<: *base, or <<: [*a, *b]) bring in the keys
+// of other mappings that n does not give itself; where several are merged,
+// the first to give a key wins (YAML merge key type, yaml.org/type/merge).
+// Merged keys keep the lines where they are written. It returns nil (after
+// reporting) when n is not a mapping.
 func (r *reader) newObject(n *yaml.Node, path string) *object {
+	n = deref(n)
 	if n.Kind != yaml.MappingNode {
 		r.addf(n, path, "expected a mapping of keys to values, got %s", describe(n))
 		return nil
 	}
+	if !r.spend(len(n.Content)/2 + 1) {
+		return nil
+	}
 	o := &object{r: r, node: n, path: path, values: map[string]*yaml.Node{}, keys: map[string]*yaml.Node{}}
+	var merges []*yaml.Node
 	for i := 0; i+1 < len(n.Content); i += 2 {
-		k, v := n.Content[i], n.Content[i+1]
+		k, v := n.Content[i], deref(n.Content[i+1])
+		if isMergeKey(k) {
+			merges = append(merges, v)
+			continue
+		}
 		if k.Kind != yaml.ScalarNode {
 			r.addf(k, path, "keys must be plain words, got %s", describe(k))
 			continue
@@ -68,7 +127,63 @@ func (r *reader) newObject(n *yaml.Node, path string) *object {
 		o.values[k.Value] = v
 		o.order = append(o.order, k.Value)
 	}
+	seen := map[*yaml.Node]bool{n: true}
+	for _, v := range merges {
+		o.merge(v, seen)
+	}
 	return o
+}
+
+// isMergeKey reports whether k is the merge key "<<" (unquoted).
+func isMergeKey(k *yaml.Node) bool {
+	return k.Kind == yaml.ScalarNode && k.Value == "<<" && k.Style&(yaml.SingleQuotedStyle|yaml.DoubleQuotedStyle) == 0
+}
+
+// merge adds the keys of the mapping (or list of mappings) v that o does
+// not have yet. seen holds the mappings merged already, which add nothing
+// new a second time (and so cannot loop).
+func (o *object) merge(v *yaml.Node, seen map[*yaml.Node]bool) {
+	v = deref(v)
+	switch v.Kind {
+	case yaml.SequenceNode:
+		for _, item := range v.Content {
+			item = deref(item)
+			if item.Kind != yaml.MappingNode {
+				o.r.addf(item, o.field("<<"), "a merge key takes mappings (e.g. <<: *base, or <<: [*a, *b] where &a and &b name mappings), got %s", describe(item))
+				continue
+			}
+			o.merge(item, seen)
+		}
+		return
+	case yaml.MappingNode:
+	default:
+		o.r.addf(v, o.field("<<"), "a merge key takes a mapping or a list of mappings (e.g. <<: *base, where &base names a mapping), got %s", describe(v))
+		return
+	}
+	if seen[v] || !o.r.spend(len(v.Content)/2+1) {
+		return
+	}
+	seen[v] = true
+	var nested []*yaml.Node
+	for i := 0; i+1 < len(v.Content); i += 2 {
+		k, val := v.Content[i], deref(v.Content[i+1])
+		if isMergeKey(k) {
+			nested = append(nested, val)
+			continue
+		}
+		if k.Kind != yaml.ScalarNode {
+			continue // reported where the mapping itself is read, if it is
+		}
+		if _, has := o.keys[k.Value]; has {
+			continue
+		}
+		o.keys[k.Value] = k
+		o.values[k.Value] = val
+		o.order = append(o.order, k.Value)
+	}
+	for _, val := range nested {
+		o.merge(val, seen)
+	}
 }
 
 // field returns the path of one key of o.
@@ -188,7 +303,8 @@ func (o *object) required(key string, kind units.Kind) (float64, bool) {
 	return o.quantity(key, kind)
 }
 
-// positive reads a quantity that must be above zero.
+// positive reads a quantity that must be above zero and, for the kinds in
+// sensible, within a range that keeps every value derived from it finite.
 func (o *object) positive(key string, kind units.Kind, need bool) (float64, bool) {
 	var x float64
 	var ok bool
@@ -201,7 +317,118 @@ func (o *object) positive(key string, kind units.Kind, need bool) (float64, bool
 		o.r.addf(o.values[key], o.field(key), "%q must be greater than zero (%s, e.g. %s)", o.values[key].Value, withArticle(kind.String()), example(kind))
 		return 0, false
 	}
+	if s, has := sensible[kind]; ok && has && (x < s.lo || x > s.hi) {
+		o.r.addf(o.values[key], o.field(key), "%q is outside the range a model takes for %s, %s", o.values[key].Value, withArticle(kind.String()), s.text)
+		return 0, false
+	}
 	return x, ok
+}
+
+// span is a range of values, with the text that names it in messages.
+type span struct {
+	lo, hi float64
+	text   string
+}
+
+// sensible holds, for the kinds of positive quantity, a range wide enough
+// for any electronics enclosure and narrow enough that products, quotients
+// and reciprocals of the values stay finite (a conductance of 1e-320 W/K
+// would make the resistance infinite). The bounds are round numbers chosen
+// for that purpose, not physical limits.
+var sensible = map[units.Kind]span{
+	units.Length:                  {1e-9, 1e4, "1 nm to 10 km"},
+	units.Area:                    {1e-12, 1e6, "1e-12 m2 (1 µm2) to 1e6 m2"},
+	units.Conductivity:            {1e-5, 1e6, "1e-5 to 1e6 W/m/K"},
+	units.ThermalResistance:       {1 / maxConductance, 1 / minConductance, "1e-9 to 1e9 K/W"},
+	units.Conductance:             {minConductance, maxConductance, "1e-9 to 1e9 W/K"},
+	units.SpecificResistance:      {1e-10, 1, "1e-10 to 1 K*m2/W (1e-6 to 1e4 K*cm2/W)"},
+	units.HeatTransferCoefficient: {1e-3, 1e7, "1e-3 to 1e7 W/m2/K"},
+	units.Pressure:                {100, 1e7, "100 Pa to 10 MPa"},
+	units.VolumeFlow:              {1e-9, 1e3, "1e-9 to 1000 m3/s"},
+	units.MassFlow:                {1e-9, 1e3, "1e-9 to 1000 kg/s"},
+	units.Velocity:                {1e-4, 1e3, "0.1 mm/s to 1000 m/s"},
+	units.Density:                 {1e-3, 1e5, "1e-3 to 1e5 kg/m3"},
+	units.SpecificHeat:            {1, 1e5, "1 to 1e5 J/kg/K"},
+}
+
+// The range of conductances, given or derived (k·A/L, h·A, A/R″), that a
+// linear link may have; its reciprocals bound the resistances.
+const (
+	minConductance = 1e-9
+	maxConductance = 1e9
+)
+
+// checkConductance reports a link whose conductance, derived as how (e.g.
+// "k·A/L"), falls outside the range a model takes.
+func (o *object) checkConductance(g float64, how string) bool {
+	if g >= minConductance && g <= maxConductance {
+		return true
+	}
+	o.r.addf(o.node, o.path, "the values give a conductance %s of %.3g W/K (a resistance of %.3g K/W), outside the range a model takes, 1e-9 to 1e9 W/K; check the values and their units", how, g, 1/g)
+	return false
+}
+
+// Absolute temperatures in a model: the range keeps T⁴ and the air
+// properties finite and excludes absolute zero, which a unit slip gives.
+const (
+	minTemperature = 1     // K
+	maxTemperature = 10000 // K
+)
+
+// temperature reads an absolute temperature, which must lie between
+// minTemperature and maxTemperature.
+func (o *object) temperature(key string, need bool) (float64, bool) {
+	const valid = "a temperature in a model must lie between 1 K and 10000 K (-272.15 degC to 9726.85 degC)"
+	var t float64
+	var ok bool
+	before := len(o.r.problems)
+	if need {
+		t, ok = o.required(key, units.Temperature)
+	} else {
+		t, ok = o.quantity(key, units.Temperature)
+	}
+	if !ok {
+		// A value below absolute zero is refused by units.Parse; add the
+		// valid range to its message.
+		if len(o.r.problems) > before {
+			if p := &o.r.problems[len(o.r.problems)-1]; strings.Contains(p.Message, "below absolute zero") {
+				p.Message += "; " + valid
+			}
+		}
+		return 0, false
+	}
+	var what string
+	switch {
+	case t <= 0:
+		what = "absolute zero"
+	case t < minTemperature:
+		what = "within 1 K of absolute zero"
+	case t > maxTemperature:
+		what = "above 10000 K"
+	default:
+		return t, true
+	}
+	o.r.addf(o.values[key], o.field(key), "%q is %s; %s, e.g. %s", o.values[key].Value, what, valid, example(units.Temperature))
+	return 0, false
+}
+
+// maxPower bounds a heat input, W.
+const maxPower = 1e6
+
+// power reads a heat input, positive or negative, of at most maxPower.
+func (o *object) power(key string, need bool) (float64, bool) {
+	var p float64
+	var ok bool
+	if need {
+		p, ok = o.required(key, units.Power)
+	} else {
+		p, ok = o.quantity(key, units.Power)
+	}
+	if ok && math.Abs(p) > maxPower {
+		o.r.addf(o.values[key], o.field(key), "%q is outside the range a model takes for a heat input, -1 MW to 1 MW", o.values[key].Value)
+		return 0, false
+	}
+	return p, ok
 }
 
 // choice reads an optional word that must be one of valid; it returns ""
@@ -237,18 +464,18 @@ func (o *object) flag(key string) (value, ok bool) {
 	return false, false
 }
 
-// count reads a whole number of at least least.
-func (o *object) count(key string, least int) (int, bool) {
+// count reads a whole number from least to most.
+func (o *object) count(key string, least, most int) (int, bool) {
 	s, ok := o.str(key)
 	if !ok {
 		if !o.has(key) {
-			o.missing(key, fmt.Sprintf("a whole number of at least %d", least))
+			o.missing(key, fmt.Sprintf("a whole number from %d to %d", least, most))
 		}
 		return 0, false
 	}
 	n, err := strconv.Atoi(s)
-	if err != nil || n < least {
-		o.r.addf(o.values[key], o.field(key), "%q must be a whole number of at least %d", s, least)
+	if err != nil || n < least || n > most {
+		o.r.addf(o.values[key], o.field(key), "%q must be a whole number from %d to %d", s, least, most)
 		return 0, false
 	}
 	return n, true
@@ -295,9 +522,10 @@ func (o *object) oneOf(hint string, keys ...string) string {
 	return ""
 }
 
-// list returns the items of a sequence value, or nil after reporting when
-// the value is not a sequence.
+// list returns the items of a sequence value (aliases followed), or nil
+// after reporting when the value is not a sequence.
 func (r *reader) list(n *yaml.Node, field, hint string) []*yaml.Node {
+	n = deref(n)
 	if n.Kind != yaml.SequenceNode {
 		if n.Tag == "!!null" {
 			return nil
@@ -305,7 +533,14 @@ func (r *reader) list(n *yaml.Node, field, hint string) []*yaml.Node {
 		r.addf(n, field, "expected a list (%s), got %s", hint, describe(n))
 		return nil
 	}
-	return n.Content
+	if !r.spend(len(n.Content)) {
+		return nil
+	}
+	items := make([]*yaml.Node, len(n.Content))
+	for i, item := range n.Content {
+		items[i] = deref(item)
+	}
+	return items
 }
 
 // describe names the kind of a YAML node for messages.

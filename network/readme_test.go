@@ -1,8 +1,11 @@
 package network_test
 
 import (
+	"math"
 	"strings"
 	"testing"
+
+	"github.com/heatgraph/heatgraph/network"
 )
 
 // The annotated model in README.md must stay valid and solvable.
@@ -18,4 +21,31 @@ func TestReadmeModel(t *testing.T) {
 	if len(sol.Nodes) != 5 || len(sol.Links) != 7 {
 		t.Errorf("README model: %d nodes, %d links; want 5 and 7", len(sol.Nodes), len(sol.Links))
 	}
+}
+
+// The anchors example in README.md reads as it says.
+func TestReadmeAnchors(t *testing.T) {
+	readme := readFile(t, "../README.md")
+	start := strings.Index(readme, "```yaml\nshared:")
+	if start < 0 {
+		t.Fatal("README.md has no anchors example")
+	}
+	body := readme[start+len("```yaml\n"):]
+	body = body[:strings.Index(body, "```")]
+	m := parseOK(t, body)
+	want := map[string][2]float64{ // length, area
+		"adc-paste":  {0.05e-3, 1e-4},
+		"dac-paste":  {0.05e-3, 1.5e-4},
+		"fpga-paste": {0.1e-3, 6e-4},
+	}
+	for id, w := range want {
+		p := link(t, m, id).Params.(*network.Conduction)
+		if math.Abs(p.Length-w[0]) > 1e-15 || math.Abs(p.Area-w[1]) > 1e-15 || p.Material != "thermal-grease" {
+			t.Errorf("%s: L %g m, A %g m², %s; want %g, %g, thermal-grease", id, p.Length, p.Area, p.Material, w[0], w[1])
+		}
+	}
+	if m.Nodes[0].Power != 3.2 || m.Nodes[1].Power != 3.2 {
+		t.Errorf("powers %g, %g W; want 3.2 from the alias", m.Nodes[0].Power, m.Nodes[1].Power)
+	}
+	solveModel(t, "README.md", body)
 }

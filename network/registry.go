@@ -4,7 +4,7 @@ import (
 	"sort"
 	"strings"
 
-	"github.com/heatgraph/heatgraph/network/units"
+	"github.com/heatgraph/heatgraph/units"
 )
 
 // A link kind registers itself from its own file (kind_<name>.go) with

@@ -22,6 +22,8 @@ type Steady struct {
 	mag   []float64 // magnitude of the terms of every equation
 	ev    evaluator
 	state elements.State
+	capM  *sparse.Matrix // work space of Capacity
+	capE  []float64
 }
 
 // Steady returns a new steady-state problem for the network.
@@ -51,6 +53,10 @@ func (p *Steady) KindOf(i int) int { return int(p.net.Vars[p.net.unknown[i]].Kin
 
 // Name names unknown i for messages.
 func (p *Steady) Name(i int) string { return p.net.Vars[p.net.unknown[i]].Name() }
+
+// EquationName names the equation of unknown i for messages, e.g.
+// `heat balance of "cpu"`.
+func (p *Steady) EquationName(i int) string { return p.net.Vars[p.net.unknown[i]].Equation() }
 
 // Variable returns the network variable of unknown i.
 func (p *Steady) Variable(i int) int { return p.net.unknown[i] }
@@ -138,13 +144,14 @@ func (p *Steady) Capacity(x, c []float64) {
 	if len(p.net.asm.storing) == 0 {
 		return
 	}
-	m := p.Pattern()
-	e := make([]float64, len(c))
-	if err := p.Stored(x, e, m); err != nil {
+	if p.capM == nil {
+		p.capM, p.capE = p.Pattern(), make([]float64, len(c))
+	}
+	if err := p.Stored(x, p.capE, p.capM); err != nil {
 		return
 	}
 	for i := range c {
-		c[i] = m.At(i, i)
+		c[i] = p.capM.At(i, i)
 	}
 }
 

@@ -29,7 +29,7 @@ const (
 // terms.
 var varKinds = []solve.Kind{
 	TemperatureVar: {Name: "temperature", Unit: "K", Equation: "heat balance", EquationUnit: "W",
-		Scale: 1, MaxStep: 200, ResidualFloor: 1e-15},
+		Scale: 1, MaxStep: 500, ResidualFloor: 1e-15},
 	PressureVar: {Name: "pressure", Unit: "Pa", Equation: "mass balance", EquationUnit: "kg/s",
 		Scale: 1, MaxStep: 1e4, ResidualFloor: 1e-15},
 	MassFlowVar: {Name: "mass flow", Unit: "kg/s", Equation: "momentum balance", EquationUnit: "Pa",

@@ -17,6 +17,7 @@ type Result struct {
 	Residual   float64    // largest |F(X)|, in mixed units when kinds differ
 	Scaled     float64    // largest |F_i(X)| relative to its equation's magnitude
 	Worst      int        // the equation with the largest scaled residual, −1 if none
+	WorstValue float64    // that equation's residual, in its unit
 	Step       float64    // largest |Δx|/Scale of the last Newton step computed
 	// Kinds reports the convergence of each kind of unknown at X.
 	Kinds []KindResult
@@ -105,7 +106,7 @@ func Newton(p Problem, x0 []float64, s Settings) Result {
 		f: make([]float64, n), mag: make([]float64, n),
 		ft: make([]float64, n), magt: make([]float64, n),
 		wt: make([]float64, n), step: make([]float64, n), rhs: make([]float64, n),
-		trial: make([]float64, n), d: make([]float64, n),
+		trial: make([]float64, n), d: make([]float64, n), xnow: x,
 	}
 	w.jac = p.Pattern()
 	w.jact = w.jac.Clone()
@@ -148,24 +149,25 @@ func Newton(p Problem, x0 []float64, s Settings) Result {
 		if stepOK && resOK {
 			res.Reason = Converged
 			res.SingularAtSolution = shifted
-			if !shifted {
-				// Take the last Newton step too: it is within
-				// tolerance, and Newton's method squares the error.
-				// Keep it only if the residual stays within tolerance.
+			{
+				// Take the last step too: it is within tolerance,
+				// and Newton's method squares the error. Keep it
+				// only if the residual stays within tolerance.
 				for i := range w.trial {
 					w.trial[i] = x[i] + w.step[i]
 				}
-				if err := p.Evaluate(w.trial, w.ft, nil, w.magt); err == nil && allFinite(w.ft) && w.withinTolerance(w.ft, w.magt) {
+				if err := p.Evaluate(w.trial, w.ft, w.jact, w.magt); err == nil && allFinite(w.ft) && w.withinTolerance(w.trial, w.ft, w.magt, w.jact) {
 					copy(x, w.trial)
 					w.f, w.ft = w.ft, w.f
 					w.mag, w.magt = w.magt, w.mag
+					w.jac, w.jact = w.jact, w.jac
 				}
 			}
 			return w.finish(res)
 		}
 		if shifted {
 			res.Pseudo++
-			if res.Pseudo > s.MaxPseudoSteps {
+			if s.MaxPseudoSteps > 0 && res.Pseudo > s.MaxPseudoSteps {
 				res.Reason = SingularJacobian
 				res.Floating = floating(w.jac)
 				res.Err = w.nameFloating(fmt.Errorf("%w after %d pseudo-transient steps", ErrSingular, s.MaxPseudoSteps), res.Floating)
@@ -189,7 +191,7 @@ func Newton(p Problem, x0 []float64, s Settings) Result {
 			if !allFinite(w.ft) {
 				return 0, errNotFinite
 			}
-			if shifted || w.withinTolerance(w.ft, w.magt) {
+			if shifted || w.withinTolerance(w.trial, w.ft, w.magt, w.jact) {
 				// A pseudo-transient step need not decrease the
 				// merit; near the solution round-off stops the merit
 				// from falling, and a trial within tolerance will do.
@@ -241,6 +243,10 @@ func Newton(p Problem, x0 []float64, s Settings) Result {
 		} else {
 			cut = 0
 		}
+		if !shifted && lambda == 1 {
+			w.dtau = 0
+		}
+		w.lastShifted = shifted
 		copy(x, w.trial)
 		w.f, w.ft = w.ft, w.f
 		w.mag, w.magt = w.magt, w.mag
@@ -255,6 +261,13 @@ func Newton(p Problem, x0 []float64, s Settings) Result {
 		}
 	}
 	res.Reason = MaxIterations
+	if w.lastShifted {
+		// Still taking pseudo-transient steps at the end: the Jacobian
+		// never became regular.
+		res.Reason = SingularJacobian
+		res.Floating = floating(w.jac)
+		res.Err = w.nameFloating(fmt.Errorf("%w after %d iterations, %d of them pseudo-transient steps", ErrSingular, res.Iterations, res.Pseudo), res.Floating)
+	}
 	return w.finish(res)
 }
 
@@ -282,10 +295,14 @@ type work struct {
 	wt        []float64 // merit weights
 	step, rhs []float64
 	trial     []float64
+	xnow      []float64 // the current state (Newton's x)
 	d         []float64 // diagonal scaling
 	jac, jact *sparse.Matrix
 	shift     *sparse.Matrix
 	capacity  []float64
+	dtau      float64 // the last pseudo time step; 0 until the first
+	// lastShifted is set when the last step taken was pseudo-transient.
+	lastShifted bool
 }
 
 // floor returns equation i's residual floor.
@@ -316,14 +333,32 @@ func (w *work) merit(f []float64) float64 {
 	return s / 2
 }
 
-// withinTolerance reports whether every equation passes the residual test.
-func (w *work) withinTolerance(f, mag []float64) bool {
+// withinTolerance reports whether every equation passes the residual test
+// at the state x whose residual is f, magnitudes mag and Jacobian jac.
+func (w *work) withinTolerance(x, f, mag []float64, jac *sparse.Matrix) bool {
 	for i, v := range f {
-		if math.Abs(v) > w.s.ResidualTolerance*mag[i]+w.floor(i) {
+		if math.Abs(v) > w.tolerance(i, x, mag, jac) {
 			return false
 		}
 	}
 	return true
+}
+
+// roundOff is the factor on the unit round-off of the terms of an equation
+// that no residual can be asked to beat: a heat balance computed from
+// absolute temperatures, G·(T_a − T_b) with T ≈ 300 K, carries rounding
+// errors of about ε·G·T whatever the heat it moves.
+const roundOff = 1e3 * 0x1p-52
+
+// tolerance returns the largest residual accepted for equation i:
+// ResidualTolerance of its magnitude, plus the round-off of its terms
+// (roundOff·Σ_j |J_ij·x_j|), plus its kind's floor.
+func (w *work) tolerance(i int, x, mag []float64, jac *sparse.Matrix) float64 {
+	noise := 0.0
+	for k := jac.RowPtr[i]; k < jac.RowPtr[i+1]; k++ {
+		noise += math.Abs(jac.Val[k] * x[jac.Col[k]])
+	}
+	return w.s.ResidualTolerance*mag[i] + roundOff*noise + w.floor(i)
 }
 
 // tests applies the step and residual tests at the current state.
@@ -335,7 +370,7 @@ func (w *work) tests() (stepOK, resOK bool) {
 			break
 		}
 	}
-	return stepOK, w.withinTolerance(w.f, w.mag)
+	return stepOK, w.withinTolerance(w.xnow, w.f, w.mag, w.jac)
 }
 
 func (w *work) scaledStepMax() float64 {
@@ -443,8 +478,27 @@ func (w *work) pseudoStep(x []float64) error {
 	if !(rate > 0) {
 		rate = 1
 	}
+	// The first pseudo-step moves the fastest unknown by PseudoStep of its
+	// scale; each further one in a row doubles Δτ, so that the steps turn
+	// into Newton steps as the iteration settles (a geometric form of
+	// switched evolution relaxation, Kelley & Keyes 1998, §2).
 	dtau := w.s.PseudoStep / rate
+	if w.dtau > 0 {
+		dtau = math.Max(dtau, 2*w.dtau)
+	}
+	// However small the residual, the shift stays above 1e-10 of each
+	// row's largest entry, so that the shifted matrix is regular.
+	for i := 0; i < n; i++ {
+		big := 0.0
+		for k := w.jac.RowPtr[i]; k < w.jac.RowPtr[i+1]; k++ {
+			big = math.Max(big, math.Abs(w.jac.Val[k]))
+		}
+		if big > 0 {
+			dtau = math.Min(dtau, w.capacity[i]/(1e-10*big))
+		}
+	}
 	var err error
+	defer func() { w.dtau = dtau }()
 	for try := 0; try < 8; try, dtau = try+1, dtau/10 {
 		for i := 0; i < n; i++ {
 			for k := w.jac.RowPtr[i]; k < w.jac.RowPtr[i+1]; k++ {
@@ -488,6 +542,9 @@ func (w *work) pseudoStep(x []float64) error {
 func (w *work) finish(r Result) Result {
 	r.Residual = maxAbs(w.f)
 	r.Scaled, r.Worst = w.worstScaled()
+	if r.Worst >= 0 {
+		r.WorstValue = w.f[r.Worst]
+	}
 	r.Kinds = make([]KindResult, len(w.kinds))
 	for k := range w.kinds {
 		r.Kinds[k] = KindResult{Kind: w.kinds[k], StepAt: -1, ResidualAt: -1, ScaledAt: -1, Converged: true}
@@ -505,7 +562,7 @@ func (w *work) finish(r Result) Result {
 		if kr.ScaledAt < 0 || sc > kr.Scaled {
 			kr.Scaled, kr.ScaledAt = sc, i
 		}
-		if math.Abs(v) > w.s.ResidualTolerance*w.mag[i]+w.floor(i) ||
+		if math.Abs(v) > w.tolerance(i, w.xnow, w.mag, w.jac) ||
 			math.Abs(w.step[i]) > w.s.StepTolerance*w.kinds[w.kindOf[i]].Scale {
 			kr.Converged = false
 		}

@@ -18,9 +18,10 @@ type Settings struct {
 	// pseudo-transient step aims at when the Jacobian is singular (see
 	// Newton). Default 10.
 	PseudoStep float64
-	// MaxPseudoSteps bounds the pseudo-transient steps of one solve; a
-	// problem still singular after that many has unknowns that are truly
-	// undetermined. Default 50.
+	// MaxPseudoSteps, when positive, bounds the pseudo-transient steps of
+	// one solve. By default only MaxIterations bounds them; a solve that
+	// ends still taking pseudo-transient steps stops as SingularJacobian,
+	// naming the undetermined unknowns.
 	MaxPseudoSteps int
 	// Linear solves the Newton systems. Default: a DenseLU for up to
 	// DenseLimit unknowns.
@@ -41,7 +42,6 @@ const (
 	DefaultStepTolerance     = 1e-7
 	DefaultResidualTolerance = 1e-9
 	DefaultPseudoStep        = 10
-	DefaultMaxPseudoSteps    = 50
 )
 
 // DefaultSettings returns the settings with every default filled in.
@@ -62,9 +62,6 @@ func (s Settings) withDefaults() Settings {
 	}
 	if s.PseudoStep <= 0 {
 		s.PseudoStep = DefaultPseudoStep
-	}
-	if s.MaxPseudoSteps <= 0 {
-		s.MaxPseudoSteps = DefaultMaxPseudoSteps
 	}
 	if s.LineSearch == nil {
 		s.LineSearch = Backtracking{}

@@ -13,10 +13,19 @@ import (
 var CSVHeader = []string{"record", "id", "kind", "from", "to", "temperature_degC", "limit_degC", "margin_K", "status", "power_W", "heat_W"}
 
 // WriteCSV writes one table holding every node, link and boundary flow of a
-// solution, numbers at full precision.
+// solution, numbers at full precision. A table has no room for warnings:
+// a number that is not finite leaves its cell empty, and the caller shows
+// the warnings of NonFinite.
 func WriteCSV(w io.Writer, sol *network.Solution) error {
 	cw := csv.NewWriter(w)
-	num := func(x float64) string { return strconv.FormatFloat(x, 'g', -1, 64) }
+	// A number that is not finite leaves its cell empty; NonFinite lists
+	// the warnings, which the caller shows.
+	num := func(x float64) string {
+		if !finite(x) {
+			return ""
+		}
+		return strconv.FormatFloat(x, 'g', -1, 64)
+	}
 	rows := [][]string{CSVHeader}
 	for _, n := range sol.Nodes {
 		limit, margin := "", ""

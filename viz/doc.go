@@ -16,10 +16,29 @@ const Caution = "Results are estimates from a lumped thermal model. Confirm them
 // Run describes how the solve went, for the reports.
 type Run struct {
 	Converged  bool
-	Reason     string  // the solver's stop reason
-	Iterations int     // Newton iterations
-	Residual   float64 // largest residual, W
-	Scaled     float64 // residual relative to the heat moving through the network
+	Reason     string // the solver's stop reason
+	Iterations int    // Newton iterations
+	// Worst names the equation with the largest residual relative to its
+	// own magnitude (e.g. `heat balance of "cpu"`); Residual is its
+	// residual in WorstUnit and Scaled the ratio.
+	Worst     string
+	WorstUnit string
+	Residual  float64
+	Scaled    float64
+	// Kinds reports each kind of unknown (temperature, pressure, mass
+	// flow) that the model has.
+	Kinds []KindRun
+}
+
+// KindRun is the state of one kind of unknown at the end of a solve.
+type KindRun struct {
+	Name, Unit             string // e.g. "temperature", "K"
+	Equation, EquationUnit string // e.g. "heat balance", "W"
+	Unknowns               int
+	Step                   float64 // largest component of the last Newton step, Unit
+	Residual               float64 // largest residual, EquationUnit
+	Scaled                 float64 // largest residual relative to its equation's magnitude
+	Converged              bool
 }
 
 // kelvin is the offset between kelvin and degrees Celsius.

@@ -56,6 +56,41 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 	for _, n := range sol.Nodes {
 		tMin, tMax = math.Min(tMin, n.Temperature), math.Max(tMax, n.Temperature)
 	}
+	edges := heatEdges(sol)
+	// A fixed node with several links is drawn once at each of them: one
+	// node joined to every part of the box makes the layout slow (Graphviz
+	// draws its long edges through every rank) and the picture a tangle.
+	links := map[string]int{}
+	for _, e := range edges {
+		links[e.from]++
+		links[e.to]++
+	}
+	ids := map[string]bool{}
+	for _, n := range sol.Nodes {
+		ids[n.ID] = true
+	}
+	copies := map[string][]string{} // DOT node names of each split fixed node
+	split := func(id string, kind network.NodeKind) string {
+		if kind != network.Fixed || links[id] < 2 {
+			return id
+		}
+		drawn := fmt.Sprintf("%s#%d", id, len(copies[id])+1)
+		for ids[drawn] {
+			drawn += "#"
+		}
+		ids[drawn] = true
+		copies[id] = append(copies[id], drawn)
+		return drawn
+	}
+	kinds := map[string]network.NodeKind{}
+	for _, n := range sol.Nodes {
+		kinds[n.ID] = n.Kind
+	}
+	for i := range edges {
+		edges[i].fromName = split(edges[i].from, kinds[edges[i].from])
+		edges[i].toName = split(edges[i].to, kinds[edges[i].to])
+	}
+
 	for _, n := range sol.Nodes {
 		fill := nodeFill(n, colouring, tMin, tMax)
 		label := fmt.Sprintf("%s\n%.1f °C", n.ID, celsius(n.Temperature))
@@ -79,39 +114,118 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 			attrs["penwidth"] = "3"
 			attrs["color"] = q(marginScale[0].c.hex())
 		}
-		d.check(g.AddNode(name, q(n.ID), attrs))
+		names := copies[n.ID]
+		if len(names) == 0 {
+			names = []string{n.ID}
+		} else {
+			attrs["tooltip"] = q(fmt.Sprintf("%s: drawn at each of its %d links", n.ID, len(names)))
+		}
+		for _, drawn := range names {
+			d.check(g.AddNode(name, q(drawn), attrs))
+		}
 	}
 
 	qMax := 0.0
-	for _, l := range sol.Links {
-		for _, p := range l.Paths {
-			qMax = math.Max(qMax, math.Abs(p.Heat))
-		}
+	for _, e := range edges {
+		qMax = math.Max(qMax, e.heat)
 	}
-	for _, l := range sol.Links {
-		for k, p := range l.Paths {
-			from, to, heat := p.From, p.To, p.Heat
-			if k > 0 && heat == 0 {
-				continue
-			}
-			if heat < 0 {
-				from, to, heat = to, from, -heat
-			}
-			colour, tip := edgeColour, fmt.Sprintf("%s (%s)", l.ID, l.Kind)
-			if p.Carried {
-				colour = airColour
-				if k > 0 {
-					tip = fmt.Sprintf("%s: air from %s", l.ID, p.From)
-				}
-			}
-			d.check(g.AddEdge(q(from), q(to), true, edgeAttrs(heat, qMax, tip, colour)))
+	for _, e := range edges {
+		colour := edgeColour
+		if e.air {
+			colour = airColour
 		}
+		attrs := edgeAttrs(e.heat, qMax, e.tooltip(), colour)
+		if e.fromName != e.from || e.toName != e.to {
+			// A copy of a fixed node hangs off its neighbour: leave the
+			// straightening to the paths between the nodes that matter,
+			// or a long chain becomes a staircase.
+			attrs["weight"] = "0"
+		}
+		d.check(g.AddEdge(q(e.fromName), q(e.toName), true, attrs))
 	}
-	d.legend(colouring, tMin, tMax)
+	d.legend(colouring, tMin, tMax, len(copies) > 0)
 	if d.err != nil {
 		return "", d.err
 	}
 	return g.String(), nil
+}
+
+// heatEdge is one arrow of the diagram: the heat between two nodes, in the
+// direction it flows, summed over the links that carry it.
+type heatEdge struct {
+	from, to         string // node ids, heat flows from -> to
+	fromName, toName string // DOT node names (a split fixed node's copy)
+	heat             float64
+	air              bool // heat carried by moving air
+	parts            []edgePart
+}
+
+type edgePart struct {
+	what string  // "id (kind)" or "id: air from inlet"
+	heat float64 // W, positive from -> to of the edge
+}
+
+func (e heatEdge) tooltip() string {
+	if len(e.parts) == 1 {
+		return e.parts[0].what
+	}
+	items := make([]string, len(e.parts))
+	for i, p := range e.parts {
+		items[i] = fmt.Sprintf("%s %.3g W", p.what, p.heat)
+	}
+	return fmt.Sprintf("%d links, %.3g W in all: %s", len(e.parts), e.heat, strings.Join(items, "; "))
+}
+
+// heatEdges merges the links of a solution into arrows: links between the
+// same two nodes become one arrow with their heat summed (conduction,
+// convection and radiation side by side), so that the diagram has one
+// arrow per path; heat carried by air is kept apart from heat conducted.
+// Arrows point the way the net heat flows. The order follows the model.
+func heatEdges(sol *network.Solution) []heatEdge {
+	type key struct {
+		a, b string
+		air  bool
+	}
+	index := map[key]int{}
+	var edges []heatEdge
+	add := func(from, to string, heat float64, air bool, what string) {
+		a, b, sign := from, to, 1.0
+		if b < a {
+			a, b, sign = b, a, -1
+		}
+		k := key{a, b, air}
+		i, ok := index[k]
+		if !ok {
+			i = len(edges)
+			index[k] = i
+			edges = append(edges, heatEdge{from: a, to: b, air: air})
+		}
+		edges[i].heat += sign * heat
+		edges[i].parts = append(edges[i].parts, edgePart{what: what, heat: sign * heat})
+	}
+	for _, l := range sol.Links {
+		for k, p := range l.Paths {
+			if k > 0 && p.Heat == 0 {
+				continue
+			}
+			what := fmt.Sprintf("%s (%s)", l.ID, l.Kind)
+			if k > 0 && p.Carried {
+				// The air a channel passes on carries heat of its own.
+				what = fmt.Sprintf("%s: air from %s", l.ID, p.From)
+			}
+			add(p.From, p.To, p.Heat, p.Carried, what)
+		}
+	}
+	for i := range edges {
+		e := &edges[i]
+		if e.heat < 0 {
+			e.from, e.to, e.heat = e.to, e.from, -e.heat
+			for j := range e.parts {
+				e.parts[j].heat = -e.parts[j].heat
+			}
+		}
+	}
+	return edges
 }
 
 // edgeAttrs returns the attributes of an edge carrying heat watts (≥ 0) of
@@ -153,7 +267,7 @@ func (d *dotBuilder) check(err error) {
 }
 
 // legend adds a box that explains shapes, colours and edge widths.
-func (d *dotBuilder) legend(c Colouring, tMin, tMax float64) {
+func (d *dotBuilder) legend(c Colouring, tMin, tMax float64, split bool) {
 	var rows strings.Builder
 	cell := func(fill rgb, text string) {
 		fmt.Fprintf(&rows, `<tr><td bgcolor="%s" width="18"></td><td align="left">%s</td></tr>`, fill.hex(), html.EscapeString(text))
@@ -176,6 +290,7 @@ func (d *dotBuilder) legend(c Colouring, tMin, tMax float64) {
 	label := fmt.Sprintf(`<<table border="0" cellborder="0" cellspacing="2"><tr><td colspan="2"><b>%s</b></td></tr>%s`+
 		`<tr><td colspan="2" align="left">box: solid; octagon: junction;</td></tr>`+
 		`<tr><td colspan="2" align="left">ellipse: air; cylinder: fixed</td></tr>`+
+		splitRow(split)+
 		`<tr><td colspan="2" align="left">arrows: the way heat flows;</td></tr>`+
 		`<tr><td colspan="2" align="left">width grows with watts;</td></tr>`+
 		`<tr><td colspan="2" align="left"><font color="`+airColour+`">blue: heat carried by moving air</font></td></tr></table>>`,
@@ -183,6 +298,15 @@ func (d *dotBuilder) legend(c Colouring, tMin, tMax float64) {
 	const cluster = "cluster_legend"
 	d.check(d.g.AddSubGraph(d.name, cluster, map[string]string{"label": q("legend"), "style": q("rounded"), "color": q("#9a9a9a"), "fontname": q("Helvetica"), "fontsize": "10"}))
 	d.check(d.g.AddNode(cluster, q("legend: colours"), map[string]string{"shape": "plaintext", "label": label, "fontname": q("Helvetica"), "fontsize": "9"}))
+}
+
+// splitRow is the legend's line on fixed nodes drawn more than once.
+func splitRow(split bool) string {
+	if !split {
+		return ""
+	}
+	return `<tr><td colspan="2" align="left">(a fixed node is drawn</td></tr>` +
+		`<tr><td colspan="2" align="left">at each of its links)</td></tr>`
 }
 
 func nodeFill(n network.NodeResult, c Colouring, tMin, tMax float64) rgb {

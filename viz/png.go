@@ -9,18 +9,33 @@ import (
 	"strconv"
 	"strings"
 
+	"github.com/awalterschulze/gographviz"
+	"github.com/awalterschulze/gographviz/ast"
 	"github.com/fogleman/gg"
-	"github.com/goccy/go-graphviz"
-	"github.com/goccy/go-graphviz/cgraph"
 	"github.com/golang/freetype/truetype"
 	"golang.org/x/image/font"
 	"golang.org/x/image/font/gofont/gobold"
 	"golang.org/x/image/font/gofont/goregular"
+
+	"github.com/heatgraph/heatgraph/viz/internal/engine"
 )
 
 // pngScale is the number of pixels per typographic point of the layout:
 // 2 gives crisp text on ordinary and high-density screens alike.
 const pngScale = 2.0
+
+// maxPNGPixels bounds the size of a PNG (4 bytes a pixel while painting):
+// a larger diagram is drawn at a smaller scale rather than exhausting
+// memory. SVG has no such limit.
+const maxPNGPixels = 64e6
+
+// pngScaleFor returns the pixels per point for a layout of w × h points.
+func pngScaleFor(w, h float64) float64 {
+	if px := w * h * pngScale * pngScale; px > maxPNGPixels {
+		return pngScale * math.Sqrt(maxPNGPixels/px)
+	}
+	return pngScale
+}
 
 // renderPNG lays out DOT source and paints it as a PNG.
 //
@@ -29,56 +44,45 @@ const pngScale = 2.0
 // (polygons, Bézier curves, ellipses, text with its font and colours),
 // which this function paints with a 2-D vector library. Painting the
 // primitives ourselves keeps the picture identical to the SVG output.
-func renderPNG(gv *graphviz.Graphviz, dot string) ([]byte, error) {
-	ctx := context.Background()
-	graph, err := graphviz.ParseBytes([]byte(dot))
+func renderPNG(ctx context.Context, dot string) ([]byte, error) {
+	xdot, err := engine.Render(ctx, dot, engine.XDOT)
 	if err != nil {
-		return nil, fmt.Errorf("reading the diagram: %w", err)
+		return nil, err
 	}
-	defer graph.Close()
-	var xdot bytes.Buffer
-	if err := gv.Render(ctx, graph, graphviz.Format("xdot"), &xdot); err != nil {
-		return nil, fmt.Errorf("laying out the diagram: %w", err)
-	}
-	laid, err := graphviz.ParseBytes(xdot.Bytes())
+	laid, err := readXdot(xdot)
 	if err != nil {
 		return nil, fmt.Errorf("reading the layout: %w", err)
 	}
-	defer laid.Close()
 
 	var bb [4]float64
-	if _, err := fmt.Sscanf(laid.GetStr("bb"), "%g,%g,%g,%g", &bb[0], &bb[1], &bb[2], &bb[3]); err != nil {
-		return nil, fmt.Errorf("reading the layout's bounding box %q: %w", laid.GetStr("bb"), err)
+	if _, err := fmt.Sscanf(laid.attrs["bb"], "%g,%g,%g,%g", &bb[0], &bb[1], &bb[2], &bb[3]); err != nil {
+		return nil, fmt.Errorf("reading the layout's bounding box %q: %w", laid.attrs["bb"], err)
 	}
 	const margin = 8.0 // points
-	width := int(math.Ceil((bb[2] - bb[0] + 2*margin) * pngScale))
-	height := int(math.Ceil((bb[3] - bb[1] + 2*margin) * pngScale))
+	w, h := bb[2]-bb[0]+2*margin, bb[3]-bb[1]+2*margin
+	scale := pngScaleFor(w, h)
 	p := &painter{
-		dc: gg.NewContext(width, height),
+		dc:    gg.NewContext(int(math.Ceil(w*scale)), int(math.Ceil(h*scale))),
+		scale: scale,
 		// xdot has y up from the bottom-left corner; the image has y down.
-		x: func(x float64) float64 { return (x - bb[0] + margin) * pngScale },
-		y: func(y float64) float64 { return (bb[3] - y + margin) * pngScale },
+		x: func(x float64) float64 { return (x - bb[0] + margin) * scale },
+		y: func(y float64) float64 { return (bb[3] - y + margin) * scale },
 	}
 	p.dc.SetRGB(1, 1, 1)
 	p.dc.Clear()
 
 	var ops []string
-	ops = append(ops, laid.GetStr("_draw_"))
-	ops = append(ops, clusterOps(laid)...)
-	node, err := laid.FirstNode()
-	for ; err == nil && node != nil; node, err = laid.NextNode(node) {
-		ops = append(ops, node.GetStr("_draw_"), node.GetStr("_ldraw_"))
+	ops = append(ops, laid.attrs["_draw_"])
+	ops = append(ops, laid.clusterOps()...)
+	for _, n := range laid.nodes {
+		ops = append(ops, n["_draw_"], n["_ldraw_"])
 	}
-	node, err = laid.FirstNode()
-	for ; err == nil && node != nil; node, err = laid.NextNode(node) {
-		edge, eerr := laid.FirstOut(node)
-		for ; eerr == nil && edge != nil; edge, eerr = laid.NextOut(edge) {
-			for _, a := range []string{"_draw_", "_tdraw_", "_hdraw_", "_ldraw_", "_tldraw_", "_hldraw_"} {
-				ops = append(ops, edge.GetStr(a))
-			}
+	for _, e := range laid.edges {
+		for _, a := range []string{"_draw_", "_tdraw_", "_hdraw_", "_ldraw_", "_tldraw_", "_hldraw_"} {
+			ops = append(ops, e[a])
 		}
 	}
-	ops = append(ops, laid.GetStr("_ldraw_"))
+	ops = append(ops, laid.attrs["_ldraw_"])
 	for _, o := range ops {
 		if err := p.paint(o); err != nil {
 			return nil, err
@@ -91,14 +95,99 @@ func renderPNG(gv *graphviz.Graphviz, dot string) ([]byte, error) {
 	return out.Bytes(), nil
 }
 
+// xdotGraph is a laid-out graph read from xdot output: the attributes of
+// the graph, of each subgraph, and of every node and edge in file order.
+type xdotGraph struct {
+	attrs    map[string]string
+	clusters []*xdotGraph
+	nodes    []map[string]string
+	edges    []map[string]string
+}
+
+// readXdot reads Graphviz's xdot output. It walks the syntax tree rather
+// than building a checked graph, since the drawing attributes (_draw_ …)
+// are not in the DOT attribute list.
+func readXdot(data []byte) (*xdotGraph, error) {
+	tree, err := gographviz.Parse(data)
+	if err != nil {
+		return nil, err
+	}
+	g := &xdotGraph{attrs: map[string]string{}}
+	g.add(tree.StmtList, g)
+	return g, nil
+}
+
+func (g *xdotGraph) add(list ast.StmtList, top *xdotGraph) {
+	for _, s := range list {
+		switch s := s.(type) {
+		case ast.GraphAttrs:
+			for k, v := range ast.AttrList(s).GetMap() {
+				g.attrs[k] = unquote(v)
+			}
+		case *ast.Attr:
+			g.attrs[s.Field.String()] = unquote(s.Value.String())
+		case *ast.NodeStmt:
+			top.nodes = append(top.nodes, attrMap(s.Attrs))
+		case *ast.EdgeStmt:
+			top.edges = append(top.edges, attrMap(s.Attrs))
+		case *ast.SubGraph:
+			sub := &xdotGraph{attrs: map[string]string{}}
+			sub.add(s.StmtList, top)
+			g.clusters = append(g.clusters, sub)
+		}
+	}
+}
+
+func attrMap(l ast.AttrList) map[string]string {
+	m := l.GetMap()
+	for k, v := range m {
+		m[k] = unquote(v)
+	}
+	return m
+}
+
+// unquote returns the text of a DOT string as Graphviz writes it: without
+// its quotes, with \" and \\ turned back into " and \, and line
+// continuations (backslash, newline) removed. Other backslashes stay.
+func unquote(s string) string {
+	if len(s) < 2 || s[0] != '"' || s[len(s)-1] != '"' {
+		return s
+	}
+	s = s[1 : len(s)-1]
+	if !strings.Contains(s, `\`) {
+		return s
+	}
+	var b strings.Builder
+	for i := 0; i < len(s); i++ {
+		if s[i] == '\\' && i+1 < len(s) {
+			switch s[i+1] {
+			case '"', '\\':
+				b.WriteByte(s[i+1])
+				i++
+				continue
+			case '\n':
+				i++
+				continue
+			case '\r':
+				i++
+				if i+1 < len(s) && s[i+1] == '\n' {
+					i++
+				}
+				continue
+			}
+		}
+		b.WriteByte(s[i])
+	}
+	return b.String()
+}
+
 // clusterOps returns the drawing operations of every subgraph, nested ones
 // after their parents.
-func clusterOps(g *cgraph.Graph) []string {
+func (g *xdotGraph) clusterOps() []string {
 	var ops []string
-	sub, err := g.FirstSubGraph()
-	for ; err == nil && sub != nil; sub, err = sub.NextSubGraph() {
-		ops = append(ops, sub.GetStr("_draw_"), sub.GetStr("_ldraw_"))
-		ops = append(ops, clusterOps(sub)...)
+	for _, sub := range g.clusters {
+		ops = append(ops, sub.attrs["_draw_"], sub.attrs["_ldraw_"])
+		ops = append(ops, sub.clusterOps()...)
 	}
 	return ops
 }
@@ -107,6 +196,7 @@ func clusterOps(g *cgraph.Graph) []string {
 // 1.7: E e P p L B b T t C c F S) on a gg context.
 type painter struct {
 	dc       *gg.Context
+	scale    float64 // pixels per point
 	x, y     func(float64) float64
 	pen      color.Color
 	fill     color.Color
@@ -133,7 +223,7 @@ func (p *painter) paint(s string) error {
 		switch op {
 		case 'E', 'e':
 			cx, cy, rx, ry := r.num(), r.num(), r.num(), r.num()
-			p.dc.DrawEllipse(p.x(cx), p.y(cy), rx*pngScale, ry*pngScale)
+			p.dc.DrawEllipse(p.x(cx), p.y(cy), rx*p.scale, ry*p.scale)
 			p.finish(op == 'E')
 		case 'P', 'p', 'L', 'B', 'b':
 			pts := r.points()
@@ -197,9 +287,9 @@ func (p *painter) finish(filled bool) {
 		p.dc.FillPreserve()
 	}
 	p.dc.SetColor(p.pen)
-	p.dc.SetLineWidth(p.lineW * pngScale)
+	p.dc.SetLineWidth(p.lineW * p.scale)
 	if p.dashed {
-		p.dc.SetDash(5*pngScale, 3*pngScale)
+		p.dc.SetDash(5*p.scale, 3*p.scale)
 	} else {
 		p.dc.SetDash()
 	}
@@ -230,7 +320,7 @@ func (p *painter) face() font.Face {
 	if err != nil {
 		panic(fmt.Sprintf("viz: built-in font: %v", err)) // compiled-in data
 	}
-	f := truetype.NewFace(ft, &truetype.Options{Size: p.fontSize * pngScale * 0.96, DPI: 72})
+	f := truetype.NewFace(ft, &truetype.Options{Size: p.fontSize * p.scale * 0.96, DPI: 72})
 	if p.faces == nil {
 		p.faces = map[string]font.Face{}
 	}

@@ -1,13 +1,12 @@
 package viz
 
 import (
-	"bytes"
 	"context"
 	"fmt"
 	"path/filepath"
 	"strings"
 
-	"github.com/goccy/go-graphviz"
+	"github.com/heatgraph/heatgraph/viz/internal/engine"
 )
 
 // ImageFormat is a diagram file format.
@@ -34,33 +33,23 @@ func FormatFor(path string) (ImageFormat, error) {
 	return "", fmt.Errorf("cannot tell the diagram format from %q (use a name ending in .dot, .gv, .svg or .png)", filepath.Base(path))
 }
 
+// ErrLayoutTimeout is returned (wrapped) by Render when its context ends
+// before the layout is done.
+var ErrLayoutTimeout = engine.ErrLayoutTimeout
+
 // Render lays out DOT source and returns it as the given format. DOT is
 // returned as it is. Layout uses the Graphviz library compiled into the
-// program, so no system Graphviz is needed.
-func Render(dot string, format ImageFormat) ([]byte, error) {
-	if format == FormatDOT {
+// program, so no system Graphviz is needed; it starts on the first call
+// (see package viz/internal/engine) and stops with an error wrapping
+// ErrLayoutTimeout when ctx ends first.
+func Render(ctx context.Context, dot string, format ImageFormat) ([]byte, error) {
+	switch format {
+	case FormatDOT:
 		return []byte(dot), nil
+	case FormatSVG:
+		return engine.Render(ctx, dot, engine.SVG)
+	case FormatPNG:
+		return renderPNG(ctx, dot)
 	}
-	if format != FormatSVG && format != FormatPNG {
-		return nil, fmt.Errorf("unknown diagram format %q", format)
-	}
-	ctx := context.Background()
-	gv, err := graphviz.New(ctx)
-	if err != nil {
-		return nil, fmt.Errorf("starting the layout engine: %w", err)
-	}
-	defer gv.Close()
-	if format == FormatPNG {
-		return renderPNG(gv, dot)
-	}
-	graph, err := graphviz.ParseBytes([]byte(dot))
-	if err != nil {
-		return nil, fmt.Errorf("reading the diagram: %w", err)
-	}
-	defer graph.Close()
-	var buf bytes.Buffer
-	if err := gv.Render(ctx, graph, graphviz.SVG, &buf); err != nil {
-		return nil, fmt.Errorf("laying out the diagram: %w", err)
-	}
-	return buf.Bytes(), nil
+	return nil, fmt.Errorf("unknown diagram format %q", format)
 }

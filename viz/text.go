@@ -35,7 +35,18 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 	}
 	tw.printf("%s\n", title)
 	tw.printf("model %s; ambient %.2f °C, %s\n", m.File, celsius(m.Ambient.Temperature), pressureText(m.Ambient))
-	tw.printf("solved in %d Newton iterations; largest residual %.2g W\n\n", run.Iterations, run.Residual)
+	tw.printf("solved in %d Newton iterations", run.Iterations)
+	if run.Worst != "" {
+		tw.printf("; worst remaining imbalance %.2g %s (%.1g of the flows) in the %s", run.Residual, run.WorstUnit, run.Scaled, run.Worst)
+	}
+	tw.printf("\n")
+	if len(run.Kinds) > 1 {
+		for _, k := range run.Kinds {
+			tw.printf("  %s: %d unknowns, last step %.2g %s, largest %s residual %.2g %s\n",
+				k.Name, k.Unknowns, k.Step, k.Unit, k.Equation, k.Residual, k.EquationUnit)
+		}
+	}
+	tw.printf("\n")
 
 	nodes := sortNodes(sol.Nodes, order)
 	idw := len("node")
@@ -46,13 +57,13 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 	for _, n := range nodes {
 		input, limit, margin := "", "", ""
 		if n.Power != 0 {
-			input = fmt.Sprintf("%.3f", n.Power)
+			input = fnum("%.3f", n.Power)
 		}
 		if n.HasLimit {
-			limit = fmt.Sprintf("%.2f", celsius(n.Limit))
-			margin = fmt.Sprintf("%+.2f", n.Margin)
+			limit = fnum("%.2f", celsius(n.Limit))
+			margin = fnum("%+.2f", n.Margin)
 		}
-		tw.printf("%-*s  %-8s  %9.2f  %9s  %10s  %10s  %s\n", idw, n.ID, n.Kind, celsius(n.Temperature), input, limit, margin, statusText(n.Status))
+		tw.printf("%-*s  %-8s  %9s  %9s  %10s  %10s  %s\n", idw, n.ID, n.Kind, fnum("%.2f", celsius(n.Temperature)), input, limit, margin, statusText(n.Status))
 	}
 
 	idw = len("link")
@@ -63,13 +74,13 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 	}
 	tw.printf("\n%-*s  %-*s  %10s  %s\n", idw, "link", kw, "kind", "heat [W]", "from → to (positive heat flows this way)")
 	for _, l := range sol.Links {
-		tw.printf("%-*s  %-*s  %10.3f  %s → %s", idw, l.ID, kw, l.Kind, noNegZero(l.Heat, 3), l.From, l.To)
+		tw.printf("%-*s  %-*s  %10s  %s → %s", idw, l.ID, kw, l.Kind, fnum("%.3f", noNegZero(l.Heat, 3)), l.From, l.To)
 		for _, p := range l.Paths[min(1, len(l.Paths)):] {
 			how := ""
 			if p.Carried {
 				how = " carried by the air"
 			}
-			tw.printf("; %.3f W%s %s → %s", noNegZero(p.Heat, 3), how, p.From, p.To)
+			tw.printf("; %s W%s %s → %s", fnum("%.3f", noNegZero(p.Heat, 3)), how, p.From, p.To)
 		}
 		tw.printf("\n")
 	}
@@ -78,17 +89,18 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 
 	b := sol.Balance
 	tw.printf("\nenergy balance [W]\n")
-	tw.printf("  heat in                %12.4f\n", b.In)
+	tw.printf("  heat in                %12s\n", fnum("%.4f", b.In))
 	for _, o := range b.Out {
 		if o.Heat != 0 {
-			tw.printf("  out through %-10s %12.4f\n", o.Node, o.Heat)
+			tw.printf("  out through %-10s %12s\n", o.Node, fnum("%.4f", o.Heat))
 		}
 	}
-	tw.printf("  imbalance              %12.3g\n", b.Imbalance)
+	tw.printf("  imbalance              %12s\n", fnum("%.3g", b.Imbalance))
 
-	if len(sol.Warnings) > 0 {
+	warnings := append(append([]string(nil), sol.Warnings...), NonFinite(sol)...)
+	if len(warnings) > 0 {
 		tw.printf("\nwarnings\n")
-		for _, warn := range sol.Warnings {
+		for _, warn := range warnings {
 			tw.printf("  - %s\n", warn)
 		}
 	}
@@ -132,11 +144,22 @@ func detailText(d elements.Detail) string {
 	if unit == "degC" {
 		unit = "°C"
 	}
+	if !finite(d.Value) {
+		return name + " not finite (see warnings)"
+	}
 	v := strconv.FormatFloat(d.Value, 'g', 4, 64)
 	if unit == "" {
 		return name + " " + v
 	}
 	return name + " " + v + " " + unit
+}
+
+// fnum formats x with verb, or says "not finite" (a warning explains).
+func fnum(verb string, x float64) string {
+	if !finite(x) {
+		return "not finite"
+	}
+	return fmt.Sprintf(verb, x)
 }
 
 // wrapItems joins items with ", " into lines of at most width bytes after

@@ -2,11 +2,16 @@ package viz
 
 import (
 	"bytes"
+	"context"
 	"encoding/json"
+	"fmt"
 	"image/color"
+	"math"
+	"regexp"
 	"strings"
 	"testing"
 
+	"github.com/heatgraph/heatgraph/elements"
 	"github.com/heatgraph/heatgraph/network"
 	"github.com/heatgraph/heatgraph/solve"
 	"github.com/stretchr/testify/assert"
@@ -65,9 +70,9 @@ func TestJSONFullPrecision(t *testing.T) {
 	require.NoError(t, WriteJSON(&buf, NewReport(sol.Net.Model, sol, run)))
 	var r Report
 	require.NoError(t, json.Unmarshal(buf.Bytes(), &r))
-	assert.Equal(t, sol.Nodes[1].Temperature-273.15, r.Nodes[1].TemperatureC)
-	assert.Equal(t, sol.Links[1].Heat, r.Links[1].HeatW)
-	assert.InDelta(t, -1.5, r.Links[1].HeatW, 1e-12)
+	assert.Equal(t, sol.Nodes[1].Temperature-273.15, float64(r.Nodes[1].TemperatureC))
+	assert.Equal(t, sol.Links[1].Heat, float64(r.Links[1].HeatW))
+	assert.InDelta(t, -1.5, float64(r.Links[1].HeatW), 1e-12)
 	assert.Equal(t, []string(nil), r.Exceeded)
 }
 
@@ -126,10 +131,10 @@ func TestRenderFormats(t *testing.T) {
 	sol, _ := solved(t)
 	dot, err := DOT(sol, ColourTemperature)
 	require.NoError(t, err)
-	svg, err := Render(dot, FormatSVG)
+	svg, err := Render(context.Background(), dot, FormatSVG)
 	require.NoError(t, err)
 	assert.Contains(t, string(svg), "<svg")
-	png, err := Render(dot, FormatPNG)
+	png, err := Render(context.Background(), dot, FormatPNG)
 	require.NoError(t, err)
 	assert.True(t, bytes.HasPrefix(png, []byte("\x89PNG")))
 	_, err = FormatFor("x.pdf")
@@ -166,4 +171,169 @@ links:
 	require.NoError(t, err)
 	assert.Contains(t, dot, `"mid"->"out"`)
 	assert.Contains(t, dot, `label="10 W"`)
+}
+
+// Parallel links between two nodes become one arrow with their heat
+// summed and the parts in the tooltip; a fixed node with several links is
+// drawn at each of them. Every node still shows its temperature, and the
+// arrows still point the way heat flows.
+func TestDOTMergesParallelLinksAndSplitsFixedNodes(t *testing.T) {
+	sol := solveChain(t, 5)
+	dot, err := DOT(sol, ColourMargin)
+	require.NoError(t, err)
+	for i := range 5 {
+		var conv, rad float64
+		for _, l := range sol.Links {
+			switch l.ID {
+			case fmt.Sprintf("c%d", i):
+				conv = l.Heat
+			case fmt.Sprintf("r%d", i):
+				rad = l.Heat
+			}
+		}
+		require.Positive(t, conv)
+		require.Positive(t, rad)
+		// One arrow from n<i> to its own copy of ambient, labelled with the
+		// sum, its tooltip naming both links.
+		re := regexp.MustCompile(fmt.Sprintf(`"n%d"->"ambient#\d+"\[[^\]]*label="([^"]+) W"[^\]]*tooltip="2 links, [^"]*c%d \(convection\) [^"]*; r%d \(radiation\) [^"]*"`, i, i, i))
+		m := re.FindStringSubmatch(dot)
+		require.NotNil(t, m, "n%d: one merged arrow to ambient", i)
+		assert.Equal(t, fmt.Sprintf("%.3g", conv+rad), m[1])
+		assert.Contains(t, dot, fmt.Sprintf(`label="n%d\n`, i), "every node is drawn with its temperature")
+	}
+	assert.Equal(t, 5, strings.Count(dot, `label="ambient\n25.0 °C"`), "ambient drawn once per link")
+	assert.Equal(t, 5, strings.Count(dot, "->\"ambient#"))
+	assert.Equal(t, 5, strings.Count(dot, "weight=0"), "copies of a fixed node do not bend the chain")
+	// The heat enters at n0 and flows down the chain.
+	for i := range 4 {
+		assert.Contains(t, dot, fmt.Sprintf(`"n%d"->"n%d"`, i, i+1))
+	}
+	assert.Contains(t, dot, "a fixed node is drawn")
+}
+
+// heatEdges sums links in both orientations and points the arrow the way
+// the net heat flows.
+func TestHeatEdges(t *testing.T) {
+	sol := &network.Solution{Links: []network.LinkResult{
+		{ID: "a", Kind: "lumped", From: "x", To: "y", Heat: 2, Paths: []network.PathResult{{From: "x", To: "y", Heat: 2}}},
+		{ID: "b", Kind: "lumped", From: "y", To: "x", Heat: 5, Paths: []network.PathResult{{From: "y", To: "x", Heat: 5}}},
+		{ID: "s", Kind: "stream", From: "x", To: "y", Heat: 1, Paths: []network.PathResult{{From: "x", To: "y", Heat: 1, Carried: true}}},
+	}}
+	edges := heatEdges(sol)
+	require.Len(t, edges, 2, "heat carried by air is kept apart")
+	assert.Equal(t, "y", edges[0].from)
+	assert.Equal(t, "x", edges[0].to)
+	assert.InDelta(t, 3, edges[0].heat, 1e-12)
+	assert.Equal(t, "2 links, 3 W in all: a (lumped) -2 W; b (lumped) 5 W", edges[0].tooltip())
+	assert.True(t, edges[1].air)
+	assert.Equal(t, "x", edges[1].from)
+}
+
+// No report writes a number that is not finite as if it were one: JSON
+// writes null (a detail is left out), CSV leaves the cell empty, text says
+// "not finite", and each gets a warning naming the item and quantity.
+func TestNonFiniteNumbers(t *testing.T) {
+	sol, run := solved(t)
+	sol.Links[0].Heat = math.Inf(1)
+	sol.Links[0].Details = append(sol.Links[0].Details,
+		elements.Detail{Name: "friction_factor", Value: math.Inf(1)},
+		elements.Detail{Name: "h", Value: 5, Unit: "W/(m2 K)"})
+	sol.Nodes[1].Margin = math.NaN()
+	run.Residual = math.Inf(1)
+
+	warnings := NonFinite(sol)
+	assert.Contains(t, warnings, "link up: heat is infinite, not a finite number; its value is left out")
+	assert.Contains(t, warnings, "link up: friction factor is infinite, not a finite number; it is not reported")
+	assert.Contains(t, warnings, "node chip: margin is undefined (NaN), not a finite number; its value is left out")
+
+	var buf bytes.Buffer
+	require.NoError(t, WriteJSON(&buf, NewReport(sol.Net.Model, sol, run)))
+	var doc map[string]any
+	require.NoError(t, json.Unmarshal(buf.Bytes(), &doc), buf.String())
+	links := doc["links"].([]any)
+	up := links[0].(map[string]any)
+	assert.Nil(t, up["heat_W"])
+	assert.Contains(t, up, "heat_W", "a field that cannot be left out is null")
+	for _, d := range up["details"].([]any) {
+		assert.NotEqual(t, "friction_factor", d.(map[string]any)["name"])
+	}
+	assert.Contains(t, up["warnings"], "link up: friction factor is infinite, not a finite number; it is not reported")
+	assert.Nil(t, doc["solver"].(map[string]any)["max_residual_W"])
+	assert.Contains(t, doc["warnings"], "solver: largest residual is infinite, not a finite number; its value is left out")
+	assert.Contains(t, doc["warnings"], "link up: heat is infinite, not a finite number; its value is left out")
+
+	buf.Reset()
+	require.NoError(t, WriteCSV(&buf, sol))
+	assert.Contains(t, buf.String(), "link,up,lumped,chip,ambient,,,,,,\n")
+	assert.NotRegexp(t, `(?i)inf|nan`, buf.String())
+
+	buf.Reset()
+	require.NoError(t, WriteText(&buf, sol, run, ByFile))
+	assert.Contains(t, buf.String(), "link up: heat is infinite")
+	// The same report without the bad numbers has no warnings section.
+	clean, cleanRun := solved(t)
+	buf.Reset()
+	require.NoError(t, WriteText(&buf, clean, cleanRun, ByFile))
+	assert.NotContains(t, buf.String(), "warnings")
+	assert.Equal(t, "friction factor not finite (see warnings)", detailText(elements.Detail{Name: "friction_factor", Value: math.Inf(1)}))
+}
+
+func TestNumberJSON(t *testing.T) {
+	for _, c := range []struct {
+		x    float64
+		want string
+	}{{1.5, "1.5"}, {1e-319, "1e-319"}, {math.Inf(1), "null"}, {math.Inf(-1), "null"}, {math.NaN(), "null"}} {
+		b, err := json.Marshal(Number(c.x))
+		require.NoError(t, err)
+		assert.Equal(t, c.want, string(b))
+	}
+	var n Number
+	require.NoError(t, json.Unmarshal([]byte("null"), &n))
+	assert.True(t, math.IsNaN(float64(n)))
+}
+
+func TestTextNotFinite(t *testing.T) {
+	sol, run := solved(t)
+	sol.Links[0].Heat = math.Inf(-1)
+	sol.Balance.Imbalance = math.NaN()
+	var buf bytes.Buffer
+	require.NoError(t, WriteText(&buf, sol, run, ByFile))
+	tables, _, _ := strings.Cut(buf.String(), "\nwarnings\n")
+	assert.NotRegexp(t, `(?i)\binf\b|nan\b`, tables, "numbers that are not finite are not printed as numbers")
+	assert.Contains(t, buf.String(), "not finite  chip → ambient")
+	assert.Contains(t, buf.String(), "link up: heat is negatively infinite")
+	assert.Contains(t, buf.String(), "energy balance: imbalance is undefined (NaN)")
+}
+
+func TestPNGScale(t *testing.T) {
+	assert.Equal(t, 2.0, pngScaleFor(1000, 800))
+	s := pngScaleFor(30000, 6000)
+	assert.Less(t, s, 2.0)
+	assert.InDelta(t, maxPNGPixels, 30000*6000*s*s, 1)
+}
+
+// The xdot reader undoes DOT quoting: escaped quotes and line
+// continuations, which Graphviz writes in long drawing attributes.
+func TestReadXdot(t *testing.T) {
+	assert.Equal(t, `T 1 2 0 9 8 -say "hi"`, unquote(`"T 1 2 0 9 8 -say \"hi\""`))
+	assert.Equal(t, "c 7 -#000000 P 2 1 2 3 4", unquote("\"c 7 -#000000 \\\nP 2 1 2 3 4\""))
+	assert.Equal(t, "plain", unquote("plain"))
+	assert.Equal(t, `T 1 2 0 3 3 -a\b \n`, unquote(`"T 1 2 0 3 3 -a\\b \n"`), "a written backslash, an unknown escape")
+
+	g, err := readXdot([]byte(`digraph g {
+	graph [bb="0,0,10,20", _draw_="c 7 -#fffffe00 "];
+	subgraph cluster_a { graph [_draw_="c 7 -#9a9a9a "]; x [_draw_="e 1 2 3 4 "]; }
+	y [_ldraw_="T 1 2 0 9 8 -say \"hi\""];
+	x -> y [_draw_="B 4 0 0 1 1 2 2 3 3 "];
+}`))
+	require.NoError(t, err)
+	assert.Equal(t, "0,0,10,20", g.attrs["bb"])
+	require.Len(t, g.nodes, 2)
+	assert.Equal(t, `T 1 2 0 9 8 -say "hi"`, g.nodes[1]["_ldraw_"])
+	require.Len(t, g.edges, 1)
+	assert.Equal(t, []string{"c 7 -#9a9a9a ", ""}, g.clusterOps())
+
+	// A label with quotes and a backslash is painted without error.
+	_, err = Render(context.Background(), `digraph g { a [label="say \"hi\" \\ 5 W"]; a -> b [label="1 W"] }`, FormatPNG)
+	assert.NoError(t, err)
 }

@@ -7,8 +7,14 @@ import (
 
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/root"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/tempfiles"
 )
 
 func main() {
-	os.Exit(root.Main(os.Args[1:], iostreams.System()))
+	// An interrupted run removes its temporary output files and exits
+	// with 130 (SIGINT) or 143 (SIGTERM).
+	stop := tempfiles.HandleSignals(os.Exit)
+	code := root.Main(os.Args[1:], iostreams.System())
+	stop()
+	os.Exit(code)
 }

@@ -18,8 +18,10 @@ const (
 	NotConverged = 3
 	// OutputFailed: the result could not be written.
 	OutputFailed = 4
-	// Internal: a bug in heatgraph.
-	Internal = 70
+	// Internal: a bug in heatgraph (a panic, an error no check foresaw).
+	// It shares its code with OutputFailed: either way there is no
+	// result, and the message tells which.
+	Internal = 4
 )
 
 // Error is an error that ends the program with Code. A nil Err with a

@@ -2,8 +2,11 @@
 package graphcmd
 
 import (
+	"context"
+	"errors"
 	"fmt"
 	"strings"
+	"time"
 
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
@@ -19,7 +22,12 @@ type Options struct {
 	Model  string
 	Output string // .dot, .gv, .svg or .png
 	Colour string // margin or temperature
+	// Timeout bounds the layout; a larger diagram stops with an error.
+	Timeout time.Duration
 }
+
+// DefaultTimeout is the default bound on the layout time.
+const DefaultTimeout = 60 * time.Second
 
 // NewCmd returns the graph command.
 func NewCmd(ios *iostreams.IOStreams, runF func(*Options) error) *cobra.Command {
@@ -32,6 +40,9 @@ margin, coloured by margin (default) or temperature; arrows point the way
 heat flows, labelled in watts and thicker for more heat; a legend explains
 the colours. The format follows the output file's extension: .dot or .gv
 (Graphviz source), .svg, .png.
+
+Large diagrams take long to lay out: the layout stops after
+--layout-timeout (60s by default) with an error.
 
 Exit status as for solve; the file is written only when the solve converged.`,
 		Example: "  heatgraph graph examples/outdoor-controller.yaml -o controller.svg",
@@ -46,6 +57,7 @@ Exit status as for solve; the file is written only when the solve converged.`,
 	}
 	cmd.Flags().StringVarP(&o.Output, "output", "o", "", "diagram file (.dot, .gv, .svg or .png)")
 	cmd.Flags().StringVar(&o.Colour, "colour", string(viz.ColourMargin), "node fill: margin or temperature")
+	cmd.Flags().DurationVar(&o.Timeout, "layout-timeout", DefaultTimeout, "give up drawing a diagram whose layout takes longer than this")
 	return cmd
 }
 
@@ -77,11 +89,22 @@ func Run(o *Options) error {
 	if err != nil {
 		return exit.With(exit.Internal, "building the diagram: %v", err)
 	}
-	data, err := viz.Render(dot, format)
-	if err != nil {
-		return exit.With(exit.OutputFailed, "%v", err)
+	timeout := o.Timeout
+	if timeout <= 0 {
+		timeout = DefaultTimeout
 	}
-	if err := pipeline.WriteFile(o.Output, data); err != nil {
+	ctx, cancel := context.WithTimeout(context.Background(), timeout)
+	defer cancel()
+	data, err := viz.Render(ctx, dot, format)
+	switch {
+	case errors.Is(err, viz.ErrLayoutTimeout):
+		return exit.With(exit.OutputFailed, "%s: the diagram of %d nodes and %d links was not laid out within %s; "+
+			"draw fewer nodes (lump parts of the model together) or allow more time with --layout-timeout",
+			o.Output, len(out.Solution.Nodes), len(out.Solution.Links), timeout)
+	case err != nil:
+		return exit.With(exit.OutputFailed, "%s: %v", o.Output, err)
+	}
+	if err := pipeline.WriteFile(o.Output, data, o.Model); err != nil {
 		return err
 	}
 	fmt.Fprintf(o.IO.ErrOut, "wrote %s; %s\n", o.Output, viz.Verdict(out.Solution))

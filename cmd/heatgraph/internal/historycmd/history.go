@@ -15,7 +15,7 @@ import (
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/pipeline"
 	"github.com/heatgraph/heatgraph/network"
-	"github.com/heatgraph/heatgraph/network/units"
+	"github.com/heatgraph/heatgraph/units"
 	"github.com/heatgraph/heatgraph/viz"
 	"github.com/schollz/progressbar/v3"
 	"github.com/spf13/cobra"

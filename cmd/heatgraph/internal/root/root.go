@@ -5,6 +5,7 @@ package root
 import (
 	"errors"
 	"fmt"
+	"strings"
 
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/checkcmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
@@ -50,18 +51,58 @@ codes, product-safety standards and licensed engineering practice.`,
 		kindscmd.NewCmd(ios),
 		historycmd.NewCmd(ios, nil),
 	)
+	for _, sub := range cmd.Commands() {
+		classify(sub)
+	}
 	return cmd
 }
 
+// classify wraps a command's RunE so that every error it returns carries an
+// exit code. Errors from the command line itself (unknown commands and
+// flags, wrong argument counts) come from cobra before RunE runs and get
+// the usage hint in Main; an error from RunE is never a usage mistake, so
+// one without a code (a bug: every foreseen failure has one) becomes an
+// internal error.
+func classify(c *cobra.Command) {
+	run := c.RunE
+	if run == nil {
+		return
+	}
+	c.RunE = func(c *cobra.Command, args []string) error {
+		err := run(c, args)
+		var ps network.Problems
+		var ee *exit.Error
+		if err == nil || errors.As(err, &ps) || errors.As(err, &ee) {
+			return err
+		}
+		return &exit.Error{Code: exit.Internal, Err: fmt.Errorf("internal error: %w\n%s", err, reportRequest)}
+	}
+}
+
+// reportRequest asks the user to report a bug.
+const reportRequest = "this is a bug in heatgraph: please report it together with the model file and the command line"
+
 // Main runs heatgraph with args and returns the exit code. It never lets a
-// panic through: a bug is reported in one line with exit code Internal.
-func Main(args []string, ios *iostreams.IOStreams) (code int) {
+// panic through: a bug is reported in one line, with a request to report
+// it, and exit code Internal. Only command-line mistakes get the hint to
+// run --help.
+func Main(args []string, ios *iostreams.IOStreams) int {
+	return guard(ios, func() int { return execute(args, ios) })
+}
+
+// guard runs f and turns a panic into a one-line internal error.
+func guard(ios *iostreams.IOStreams, f func() int) (code int) {
 	defer func() {
 		if r := recover(); r != nil {
-			fmt.Fprintf(ios.ErrOut, "heatgraph: internal error: %v\nplease report this together with the model file\n", r)
+			msg := strings.Join(strings.Fields(fmt.Sprint(r)), " ")
+			fmt.Fprintf(ios.ErrOut, "heatgraph: internal error: %s\n%s\n", msg, reportRequest)
 			code = exit.Internal
 		}
 	}()
+	return f()
+}
+
+func execute(args []string, ios *iostreams.IOStreams) int {
 	cmd := NewCmd(ios)
 	cmd.SetArgs(args)
 	err := cmd.Execute()

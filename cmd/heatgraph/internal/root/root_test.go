@@ -4,6 +4,7 @@ import (
 	"bytes"
 	"encoding/csv"
 	"encoding/json"
+	"errors"
 	"image/png"
 	"os"
 	"path/filepath"
@@ -12,6 +13,7 @@ import (
 
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
+	"github.com/spf13/cobra"
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 )
@@ -272,4 +274,110 @@ func abs(x float64) float64 {
 		return -x
 	}
 	return x
+}
+
+// -o naming the model itself is a command-line mistake: exit 2, the model
+// untouched, and no usage hint.
+func TestOutputOverInputRefused(t *testing.T) {
+	path := writeModel(t, overLimit)
+	for _, args := range [][]string{
+		{"solve", path, "-o", path},
+		{"solve", path, "-o", filepath.Join(filepath.Dir(path), ".", filepath.Base(path))},
+		{"graph", path, "-o", path + ".dot"},
+	} {
+		if args[0] == "graph" {
+			require.NoError(t, os.Symlink(path, args[3]))
+		}
+		code, _, stderr := run(args...)
+		assert.Equal(t, exit.BadInput, code, "%v: %s", args, stderr)
+		assert.Contains(t, stderr, "refusing to write over the input file")
+		assert.NotContains(t, stderr, "--help")
+		data, err := os.ReadFile(path)
+		require.NoError(t, err)
+		assert.Equal(t, overLimit, string(data))
+	}
+}
+
+// A layout that runs out of time stops with a message that names the
+// diagram's size and what to do, exit status 4, and no file.
+func TestGraphLayoutTimeout(t *testing.T) {
+	path := filepath.Join(t.TempDir(), "g.svg")
+	code, _, stderr := run("graph", examples+"outdoor-controller.yaml", "-o", path, "--layout-timeout", "1ns")
+	assert.Equal(t, exit.OutputFailed, code, stderr)
+	assert.Contains(t, stderr, "the diagram of 12 nodes and 19 links was not laid out within 1ns")
+	assert.Contains(t, stderr, "draw fewer nodes")
+	assert.NotContains(t, stderr, "--help for usage")
+	assert.NoFileExists(t, path)
+}
+
+// A conductance too small for its reciprocal to be finite (its resistance
+// would be infinite) is refused where it is written, with the range a
+// model takes, exit status 2 and no usage hint. (Before, the JSON encoder
+// failed on the infinite resistance; viz's TestNonFiniteNumbers checks
+// that no report writes a non-finite number as one.)
+const denormal = `
+ambient: {temperature: 25 degC}
+nodes:
+  - {id: chip, power: 1 W, limit: 90 degC}
+  - {id: lid}
+links:
+  - {id: weak, kind: lumped, from: chip, to: lid, conductance: 1e-320 W/K}
+  - {id: main, kind: lumped, from: chip, to: ambient, resistance: 10 K/W}
+  - {id: skin, kind: convection, from: lid, coefficient: 5 W/m2/K, area: 0.01 m2}
+`
+
+func TestNonFiniteDetails(t *testing.T) {
+	path := writeModel(t, denormal)
+	code, out, stderr := run("solve", path, "-f", "json")
+	require.Equal(t, exit.BadInput, code, stderr)
+	assert.Empty(t, out)
+	assert.Contains(t, stderr, `links[weak].conductance: "1e-320 W/K" is outside the range`)
+	assert.NotContains(t, stderr, "--help")
+}
+
+// An error that reaches Main without an exit code is a bug: exit status 4,
+// a request to report it, and no usage hint.
+func TestUncodedErrorIsInternal(t *testing.T) {
+	ios, _, _, errOut := iostreams.Test()
+	cmd := NewCmd(ios)
+	for _, sub := range cmd.Commands() {
+		if sub.Name() == "materials" {
+			sub.Run, sub.RunE = nil, func(*cobra.Command, []string) error { return errors.New("json: unsupported value: +Inf") }
+			classify(sub)
+		}
+	}
+	cmd.SetArgs([]string{"materials"})
+	err := cmd.Execute()
+	var ee *exit.Error
+	require.ErrorAs(t, err, &ee)
+	assert.Equal(t, exit.Internal, ee.Code)
+	assert.Contains(t, err.Error(), "please report it")
+	assert.Empty(t, errOut.String())
+}
+
+// A panic ends with exit status 4 and one line that says what happened,
+// then the request to report it.
+func TestPanicIsInternal(t *testing.T) {
+	ios, _, _, errOut := iostreams.Test()
+	code := guard(ios, func() int { panic("index out of range\nsecond line") })
+	assert.Equal(t, 4, code)
+	lines := strings.Split(strings.TrimSpace(errOut.String()), "\n")
+	require.Len(t, lines, 2, errOut.String())
+	assert.Equal(t, "heatgraph: internal error: index out of range second line", lines[0])
+	assert.Contains(t, lines[1], "please report it")
+	assert.NotContains(t, errOut.String(), "--help")
+}
+
+// Only command-line mistakes get the usage hint; a solve without a
+// solution and a failed write do not.
+func TestUsageHintOnlyForCommandLine(t *testing.T) {
+	code, _, stderr := run("solve", writeModel(t, noSolution))
+	assert.Equal(t, exit.NotConverged, code)
+	assert.NotContains(t, stderr, "--help")
+	code, _, stderr = run("solve", examples+"bench-logger.yaml", "-o", filepath.Join(t.TempDir(), "missing", "r.txt"))
+	assert.Equal(t, exit.OutputFailed, code)
+	assert.NotContains(t, stderr, "--help")
+	code, _, stderr = run("solve", examples+"bench-logger.yaml", "--no-such-flag")
+	assert.Equal(t, exit.BadInput, code)
+	assert.Contains(t, stderr, "--help")
 }

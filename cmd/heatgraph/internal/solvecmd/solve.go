@@ -38,9 +38,13 @@ func NewCmd(ios *iostreams.IOStreams, runF func(*Options) error) *cobra.Command 
 		Long: `Solve a model for its steady state and report every node's temperature
 against its limit, the heat carried by every link, and the energy balance.
 
+Numbers that are not finite are never printed as numbers: they are left
+out (JSON: null, or the detail dropped; CSV: an empty cell) with a warning.
+
 Exit status: 0 when every limit holds, 1 when a node is over its limit,
-2 for an invalid model or command line, 3 when the solver found no
-solution, 4 when the report could not be written.`,
+2 for an invalid model or command line (also -o naming the model file),
+3 when the solver found no solution, 4 when the report could not be
+written or on an internal error.`,
 		Example: "  heatgraph solve examples/outdoor-controller.yaml\n  heatgraph solve model.yaml --format json -o result.json",
 		Args:    cobra.ExactArgs(1),
 		RunE: func(_ *cobra.Command, args []string) error {
@@ -91,6 +95,9 @@ func Run(o *Options) error {
 		err = viz.WriteJSON(&buf, viz.NewReport(out.Net.Model, out.Solution, out.Run))
 	case o.Format == "csv":
 		err = viz.WriteCSV(&buf, out.Solution)
+		for _, w := range viz.NonFinite(out.Solution) {
+			fmt.Fprintf(o.IO.ErrOut, "heatgraph: warning: %s\n", w)
+		}
 	default:
 		err = viz.WriteText(&buf, out.Solution, out.Run, viz.Order(o.Order))
 	}
@@ -123,7 +130,7 @@ func (o *Options) check() error {
 // emit writes the finished report to the output file or standard output.
 func (o *Options) emit(data []byte) error {
 	if o.Output != "" {
-		return pipeline.WriteFile(o.Output, data)
+		return pipeline.WriteFile(o.Output, data, o.Model)
 	}
 	return write(o.IO.Out, data)
 }

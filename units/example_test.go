@@ -3,7 +3,7 @@ package units_test
 import (
 	"fmt"
 
-	"github.com/heatgraph/heatgraph/network/units"
+	"github.com/heatgraph/heatgraph/units"
 )
 
 func ExampleParse() {

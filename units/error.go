@@ -1,9 +1,10 @@
 package units
 
 import (
-	"github.com/heatgraph/heatgraph/internal/spell"
 	"strings"
 	"unicode/utf8"
+
+	"github.com/heatgraph/heatgraph/internal/spell"
 )
 
 // Error is the error Parse returns. Its message is one line that names the
