@@ -83,6 +83,9 @@ func Parse(file string, data []byte) (*Model, error) {
 	if !r.broken {
 		r.problems = append(r.problems, m.isolated()...)
 		r.problems = append(r.problems, m.unbalancedAir()...)
+		if len(r.problems) == 0 {
+			r.problems = append(r.problems, m.unbalancedAirInTime()...)
+		}
 	}
 	if len(r.problems) > 0 {
 		return nil, r.finish()

@@ -302,6 +302,9 @@ func (net *Network) startState(p *Transient, o RunOptions) ([]float64, error) {
 func (net *Network) commonPeriod() float64 {
 	period := 0.0
 	for _, p := range net.profiles {
+		if s, ok := p.(*scaledProfile); ok {
+			p = s.Of
+		}
 		var q float64
 		switch v := p.(type) {
 		case *RepeatProfile:
