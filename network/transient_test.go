@@ -246,3 +246,35 @@ links:
 		t.Logf("cycle: %+v", *h.Cycle)
 	}
 }
+
+// A massless lid whose only link is natural convection has no slope at
+// the usual start, every node at ambient (h ∝ ΔT^¼ → 0): the consistent
+// start still puts it on its balance, and it stays at its steady
+// temperature while the heavy base warms beside it (the two are not
+// linked, so the steady solve gives the lid's answer).
+func TestMasslessNodeWithoutSlopeAtStart(t *testing.T) {
+	text := `
+ambient: {temperature: 25 degC}
+nodes:
+  - {id: lid, power: 10 W}
+  - {id: base, power: 5 W, capacity: 200 J/K}
+links:
+  - {id: up, kind: natural, from: lid, orientation: facing-up, length: 200 mm, width: 150 mm}
+  - {id: side, kind: natural, from: base, orientation: vertical, height: 100 mm, width: 150 mm}
+`
+	steady := solveModel(t, "box.yaml", text)
+	net := assembleModel(t, "box.yaml", text)
+	h, err := net.Run(network.RunOptions{End: 3600})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !h.Completed() {
+		t.Fatalf("run ended: %v (%v)", h.Result.Reason, h.Result.Err)
+	}
+	lid := net.Index["lid"]
+	for k, tt := range h.Times {
+		if d := math.Abs(h.T[k][lid] - steady.T[lid]); d > 1e-6 {
+			t.Errorf("t = %g s: lid at %.6f K, steady %.6f K", tt, h.T[k][lid], steady.T[lid])
+		}
+	}
+}

@@ -512,10 +512,59 @@ func (it *integrator) consistent(t, eps float64) error {
 	}
 	copy(it.x1, it.x)
 	_, err := it.newton(it.x1, t, 1/eps, it.e0, nil)
-	if err != nil {
+	if err == nil {
+		copy(it.x, it.x1)
+		return nil
+	}
+	// Newton's method alone fails where a massless unknown's equation has
+	// no slope at the start (natural convection at zero temperature
+	// difference): solve the same equations with Newton, whose line search
+	// and pseudo-transient steps are made for that (with a linear solver
+	// of its own).
+	start := &startProblem{Transient: it.p, e0: it.e0, a: 1 / eps, e: make([]float64, it.n), m: it.p.Pattern()}
+	res := Newton(start, it.x, Settings{})
+	if !res.Reason.Converged() {
+		if res.Err != nil {
+			return fmt.Errorf("the massless unknowns could not be put on their balances at the start (%s): %w", res.Reason, res.Err)
+		}
+		return fmt.Errorf("the massless unknowns could not be put on their balances at the start (%s)", res.Reason)
+	}
+	copy(it.x, res.X)
+	return nil
+}
+
+// startProblem is the consistent start as a Problem for Newton:
+// F(x) − a·(E(x) − E₀) = 0.
+type startProblem struct {
+	Transient
+	e0, e []float64
+	a     float64
+	m     *sparse.Matrix
+}
+
+func (p *startProblem) Evaluate(x, f []float64, jac *sparse.Matrix, mag []float64) error {
+	if err := p.Transient.Evaluate(x, f, jac, mag); err != nil {
 		return err
 	}
-	copy(it.x, it.x1)
+	var m *sparse.Matrix
+	if jac != nil {
+		m = p.m
+	}
+	if err := p.Stored(x, p.e, m); err != nil {
+		return err
+	}
+	for i := range f {
+		d := p.a * (p.e[i] - p.e0[i])
+		f[i] -= d
+		if mag != nil {
+			mag[i] += math.Abs(d)
+		}
+	}
+	if jac != nil {
+		for k := range jac.Val {
+			jac.Val[k] -= p.a * m.Val[k]
+		}
+	}
 	return nil
 }
 
