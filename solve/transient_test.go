@@ -1,6 +1,7 @@
 package solve
 
 import (
+	"errors"
 	"math"
 	"testing"
 
@@ -422,5 +423,61 @@ func TestHoseaShampineWeights(t *testing.T) {
 	}
 	if math.Abs(wTrap-w) > 1e-15 || math.Abs(wEnd-d) > 1e-15 {
 		t.Errorf("stage weights (%g, %g, %g), want (w, w, d) = (%g, %g, %g)", wTrap, wTrap, wEnd, w, w, d)
+	}
+}
+
+// Every way a run can end says why, with the time it reached.
+func TestRunReasons(t *testing.T) {
+	mk := func() *linearRC { return oneNode(40, 0.8, 300, 12) }
+	if r := TRBDF2(mk(), []float64{300}, TransientSettings{End: 100, MaxSteps: 5}); r.Reason != StepLimit || r.Steps != 5 || !(r.T > 0 && r.T < 100) {
+		t.Errorf("step limit: %v after %d steps at %g s", r.Reason, r.Steps, r.T)
+	}
+	n := 0
+	if r := TRBDF2(mk(), []float64{300}, TransientSettings{End: 100, OnStep: func(StepInfo) bool { n++; return n < 3 }}); r.Reason != Interrupted || r.Steps != 3 {
+		t.Errorf("interrupted: %v after %d steps", r.Reason, r.Steps)
+	}
+	if r := TRBDF2(mk(), []float64{300}, TransientSettings{Start: 10, End: 10}); r.Reason != InvalidState || r.Err == nil {
+		t.Errorf("empty run: %v (%v)", r.Reason, r.Err)
+	}
+	// A tolerance no step can meet: the step shrinks below MinStep.
+	if r := TRBDF2(mk(), []float64{300}, TransientSettings{End: 100, Tolerances: []Tolerance{{Abs: 1e-30}}, MinStep: 1e-3}); r.Reason != StepTooSmall || r.Err == nil {
+		t.Errorf("impossible tolerance: %v (%v)", r.Reason, r.Err)
+	}
+	// Too large for the dense LU.
+	big := &linearRC{c: make([]float64, DenseLimit+1), k: nil}
+	if r := TRBDF2(&sizeOnly{big}, make([]float64, DenseLimit+1), TransientSettings{End: 1}); r.Reason != LinearFailed || !errors.Is(r.Err, ErrTooLarge) {
+		t.Errorf("too large: %v (%v)", r.Reason, r.Err)
+	}
+	for r := Completed; r <= Interrupted; r++ {
+		if r.String() == "unknown run reason" {
+			t.Errorf("reason %d has no description", r)
+		}
+	}
+}
+
+// sizeOnly is a problem with a diagonal pattern, for a size check.
+type sizeOnly struct{ *linearRC }
+
+func (p *sizeOnly) Pattern() *sparse.Matrix {
+	n := p.Size()
+	b := sparse.NewBuilder(n)
+	for i := 0; i < n; i++ {
+		b.Mark(i, i)
+	}
+	return b.Build()
+}
+
+// Looser tolerances per kind take fewer steps, and the error follows.
+func TestToleranceByKind(t *testing.T) {
+	c, g, ta, pw := 40.0, 0.8, 300.0, 12.0
+	tight := TRBDF2(oneNode(c, g, ta, pw), []float64{ta}, TransientSettings{End: 200, Tolerances: []Tolerance{{Abs: 1e-6}}})
+	loose := TRBDF2(oneNode(c, g, ta, pw), []float64{ta}, TransientSettings{End: 200, Tolerances: []Tolerance{{Abs: 1e-2}}})
+	if !(loose.Steps < tight.Steps) {
+		t.Errorf("steps: %d with 1e-2 K, %d with 1e-6 K", loose.Steps, tight.Steps)
+	}
+	et := math.Abs(tight.X[0] - rcExact(c, g, ta, pw, 200))
+	el := math.Abs(loose.X[0] - rcExact(c, g, ta, pw, 200))
+	if !(et < el) || el > 0.1 {
+		t.Errorf("errors: %.3g K with 1e-6 K, %.3g K with 1e-2 K", et, el)
 	}
 }
