@@ -2,6 +2,7 @@ package historycmd_test
 
 import (
 	"bytes"
+	"fmt"
 	"os"
 	"path/filepath"
 	"strings"
@@ -135,4 +136,35 @@ func TestProgressBar(t *testing.T) {
 	assert.Contains(t, errOut.String(), "run")
 	assert.Contains(t, errOut.String(), "100%")
 	assert.NotContains(t, out.String(), "100%")
+}
+
+// Fixed steps on a stiff pair: a thin pad (0.02 J/K) on a heavy block
+// (3 kJ/K) joined by 40 W/K, time constants 5e-4 s and about an hour;
+// 60 steps of a minute each stay on the quasi-steady pad temperature, the
+// block's plus P/G = 0.25 K (L-stability, Bank et al. 1985).
+func TestFixedStepsOnAStiffPair(t *testing.T) {
+	dir := t.TempDir()
+	model := filepath.Join(dir, "stiff.yaml")
+	require.NoError(t, os.WriteFile(model, []byte(`ambient: {temperature: 20 degC}
+nodes:
+  - {id: pad, power: 10 W, capacity: 0.02 J/K}
+  - {id: block, capacity: 3 kJ/K}
+links:
+  - {from: pad, to: block, kind: lumped, conductance: 40 W/K}
+  - {from: block, to: ambient, kind: lumped, conductance: 0.8 W/K}
+`), 0o644))
+	csv := filepath.Join(dir, "stiff.csv")
+	code, out, errOut := run(model, "--end", "1h", "--fixed-step", "1min", "--every", "5min", "--csv", csv)
+	require.Equal(t, 0, code, errOut)
+	assert.Contains(t, out, "fixed steps of 60 s: 60 steps")
+	data, err := os.ReadFile(csv)
+	require.NoError(t, err)
+	lines := strings.Split(strings.TrimSpace(string(data)), "\n")
+	require.Len(t, lines, 14)
+	for _, l := range lines[2:] {
+		var tm, amb, pad, block float64
+		_, err := fmt.Sscanf(strings.ReplaceAll(l, ",", " "), "%g %g %g %g", &tm, &amb, &pad, &block)
+		require.NoError(t, err)
+		assert.InDelta(t, 0.25, pad-block, 1e-3, "pad − block at %g min", tm)
+	}
 }
