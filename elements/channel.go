@@ -75,7 +75,8 @@ func PlateFinSink(count int, thickness, height, baseWidth, length, k float64) (C
 // Passages returns count identical passages with walls at the wall
 // temperature (no fins): rectangular or circular holes through a block or
 // a cold plate, entered from and left to a plenum (sharp entry K = 0.5,
-// exit K = 1).
+// exit K = 1). Only the walls that d.Heated names take heat: the prime area
+// is the heated perimeter times the length.
 func Passages(d duct.Duct, count int) (ChannelGeometry, error) {
 	if count < 1 {
 		return ChannelGeometry{}, fmt.Errorf("channel count must be at least 1, got %d", count)
@@ -86,7 +87,7 @@ func Passages(d duct.Duct, count int) (ChannelGeometry, error) {
 	return ChannelGeometry{
 		Duct:      d,
 		Count:     count,
-		PrimeArea: float64(count) * d.WettedPerimeter() * d.Length,
+		PrimeArea: float64(count) * d.HeatedPerimeter() * d.Length,
 		KEntry:    duct.KEntrySharp,
 		KExit:     duct.KExitPlenum,
 	}, nil
@@ -104,13 +105,14 @@ func Passages(d duct.Duct, count int) (ChannelGeometry, error) {
 // T_out = T_in + q/(ṁc_p) exactly, rather than assuming a mean temperature
 // difference. h̄ = Nu·k/D_h, with Nu from duct.Flow (Shah & London fully
 // developed, Muzychka & Yovanovich or Stephan combined entry in short
-// channels, Gnielinski or Dittus–Boelter turbulent, Gnielinski's blend in
-// transition) at Re = ṁD_h/(A_flow·μ). The air properties μ, k, c_p and Pr
-// are taken at the mean bulk temperature T_m = (T_in + T_out)/2 of the
-// current Newton iterate, so the solution is consistent with them; c_p in
-// the energy balance is Env.AirCp, the network's single value. Fins, when
-// present, count through their efficiency, A_eff = A_prime + η_f·A_fin,
-// with η_f for a straight rectangular fin with an adiabatic tip under h̄.
+// channels, Gnielinski or Dittus–Boelter turbulent, in transition
+// Gnielinski's interpolation or the turbulent correlation, per Options) at
+// Re = ṁD_h/(A_flow·μ). The air properties μ, k, c_p and Pr are taken at
+// the mean bulk temperature T_m = (T_in + T_out)/2 of the current Newton
+// iterate, so the solution is consistent with them; c_p in the energy
+// balance is Env.AirCp, the network's single value. Fins, when present,
+// count through their efficiency, A_eff = A_prime + η_f·A_fin, with η_f for
+// a straight rectangular fin with an adiabatic tip under h̄.
 //
 // A channel may be one segment of longer channels (a heat sink split along
 // the flow, say, so that each part has its own base temperature). Its
@@ -118,13 +120,18 @@ func Passages(d duct.Duct, count int) (ChannelGeometry, error) {
 // flow arrives already developing, and the segment's mean Nusselt number
 // and friction factor are those of the stretch from Upstream to
 // Upstream + L, Nu_seg = [(x₀+L)·Nu_m(x₀+L) − x₀·Nu_m(x₀)]/L, which
-// follows from h̄·L = ∫h dx.
+// follows from h̄·L = ∫h dx, never below the fully developed value
+// (duct.Segment). Downstream is the length of the same channels after it.
+// The entry loss is charged only to the segment at the entry (Upstream 0),
+// the exit loss only to the last one (Downstream 0), so that the pressure
+// drops of a split channel add up to the whole channel's.
 type Channel struct {
 	Wall, Inlet, Outlet int
 	Flow                int // the variable holding the mass flow, kg/s
 	Geometry            ChannelGeometry
 	Options             duct.Options
 	Upstream            float64 // length of the same channels upstream, m; 0 at the entry
+	Downstream          float64 // length of the same channels downstream, m; 0 at the exit
 }
 
 // channelState is everything the channel computes at one state.
@@ -177,19 +184,7 @@ func (c *Channel) eval(s *State, seed int) (cs channelState, tm dual.Num) {
 // segmentFlow returns duct.Flow for this segment: over the whole length
 // when the segment starts at the entry, else the stretch after Upstream.
 func (c *Channel) segmentFlow(re, pr dual.Num, opts duct.Options) duct.Result {
-	d := c.Geometry.Duct
-	if c.Upstream <= 0 {
-		return duct.Flow(d, re, pr, opts)
-	}
-	l, x0 := d.Length, c.Upstream
-	d.Length = x0 + l
-	whole := duct.Flow(d, re, pr, opts)
-	d.Length = x0
-	before := duct.Flow(d, re, pr, opts)
-	seg := whole
-	seg.Nu = whole.Nu.Scale(x0 + l).Sub(before.Nu.Scale(x0)).Scale(1 / l)
-	seg.F = whole.F.Scale(x0 + l).Sub(before.F.Scale(x0)).Scale(1 / l)
-	return seg
+	return duct.Segment(c.Geometry.Duct, c.Upstream, re, pr, opts)
 }
 
 // Rows returns Wall, Inlet and Outlet.
@@ -264,7 +259,7 @@ func (c *Channel) Report(s *State) Report {
 	v := s.X[c.Flow] / (p.Rho.V * g.FlowArea())
 	dp := 0.0
 	if !math.IsInf(cs.flow.F.V, 0) {
-		dp = duct.PressureDrop(cs.flow.F, g.Duct.Length/g.Duct.Dh(), g.KEntry+g.KExit, p.Rho, dual.C(v)).V
+		dp = duct.PressureDrop(cs.flow.F, g.Duct.Length/g.Duct.Dh(), c.lossCoefficient(), p.Rho, dual.C(v)).V
 	}
 	mc := s.X[c.Flow] * s.Env.AirCp
 	q := mc * cs.eff.V * (s.X[c.Wall] - s.X[c.Inlet])
@@ -295,6 +290,7 @@ func (c *Channel) Report(s *State) Report {
 		{Name: "friction_correlation", Text: cs.flow.FrictionCorrelation},
 		{Name: "entrance_length", Value: entry, Unit: "m"},
 	}
+	d = append(d, c.segmentDetails(cs.flow)...)
 	if g.FinArea > 0 {
 		d = append(d, Detail{Name: "fin_efficiency", Value: cs.etaF.V})
 	}

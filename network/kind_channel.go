@@ -16,14 +16,17 @@ func init() {
 			"outlet air node with the heat the air brought from the inlet. h̄ = Nu·k/D_h at " +
 			"Re = ṁD_h/(A·μ) with air properties at the mean bulk temperature: laminar fully " +
 			"developed (Shah & London) or developing (Muzychka & Yovanovich for rectangles, " +
-			"Stephan for tubes; Hausen with laminar_entry: thermal), turbulent Gnielinski or " +
-			"Dittus–Boelter, Gnielinski's blend in between; fins through their efficiency. The " +
+			"Stephan for tubes; Hausen with development: thermal; Shah & London with development: full), " +
+			"turbulent Gnielinski or Dittus–Boelter, and between Re 2300 and 10⁴ Gnielinski's " +
+			"interpolation or the turbulent correlation (transition key); friction from Churchill's " +
+			"all-regime equation; fins through their efficiency; only the heated walls take heat. The " +
 			"report gives every number behind h and the pressure drop.",
 		sources: []string{
 			"Incropera et al., Fundamentals of Heat and Mass Transfer, eq. 8.42b (outlet relation)",
 			"Shah & London, Laminar Flow Forced Convection in Ducts, 1978",
 			"Muzychka & Yovanovich, J. Heat Transfer 126, 2004 (combined entry)",
 			"Gnielinski, Int. Chem. Eng. 16, 1976; Petukhov 1970 (friction)",
+			"Gnielinski, VDI Heat Atlas 2010, G1; Gnielinski, Int. J. Heat Mass Transfer 63, 2013 (transition range)",
 			"Dittus & Boelter, 1930",
 			"Kays & London, Compact Heat Exchangers (entry and exit losses)",
 			"Churchill, Chem. Eng. 84, 1977 (friction factor)",
@@ -48,8 +51,12 @@ func init() {
 			{name: "diameter", dim: units.Length, need: "with shape: circular"},
 			{name: "count", what: "count", def: "1", help: "number of parallel plain channels"},
 			{name: "turbulent", what: "word", def: "gnielinski", help: "gnielinski or dittus-boelter"},
-			{name: "laminar_entry", what: "word", def: "combined", help: "combined (hydrodynamic and thermal) or thermal entry"},
-			{name: "upstream_length", dim: units.Length, def: "0", help: "length of the same channels before this segment"},
+			{name: "transition", what: "word", def: "interpolate", help: "for 2300 < Re < 10⁴: interpolate (Gnielinski, VDI Heat Atlas G1: laminar at 2300 to turbulent at 10⁴), interpolate-4000 (Gnielinski 2013: to turbulent at 4000) or turbulent (the turbulent correlation from Re 2300, a hand-calculation practice)"},
+			{name: "development", what: "word", def: "combined", help: "combined (velocity and temperature develop from the entry), thermal (velocity developed, temperature developing) or full (fully developed throughout)"},
+			{name: "laminar_entry", what: "word", help: "older name for development: combined or thermal"},
+			{name: "heated_walls", what: "word", def: "all", help: "with shape: rectangular: all, two-long (the two long walls, the short ones adiabatic) or one-long"},
+			{name: "upstream_length", dim: units.Length, def: "0", help: "length of the same channels before this segment (it then takes no entry loss)"},
+			{name: "downstream_length", dim: units.Length, def: "0", help: "length of the same channels after this segment (it then takes no exit loss)"},
 		},
 		parse: parseChannel,
 		ends: []endRule{{"from", "the wall", solidKinds}, {"inlet", "the inlet air", airwayKinds},
@@ -65,6 +72,8 @@ type Channel struct {
 	Geometry elements.ChannelGeometry
 	Options  duct.Options
 	Upstream float64 // length of the same channels before this segment, m
+	// Downstream is the length of the same channels after this segment, m.
+	Downstream float64
 }
 
 func (c *Channel) flowProfile() Profile { return c.Profile }
@@ -73,7 +82,7 @@ func (c *Channel) air(l *LinkSpec) (string, string, float64) { return l.Others[0
 
 func (c *Channel) element(e linkEnv) (elements.Element, error) {
 	return &elements.Channel{Wall: e.from, Inlet: e.others[0], Outlet: e.to, Flow: e.givenFlowProfile(c.MassFlow, c.Profile),
-		Geometry: c.Geometry, Options: c.Options, Upstream: c.Upstream}, nil
+		Geometry: c.Geometry, Options: c.Options, Upstream: c.Upstream, Downstream: c.Downstream}, nil
 }
 
 // The largest counts of fins and of parallel passages a link takes: far
@@ -90,6 +99,9 @@ var (
 	shapes          = []string{"rectangular", "circular"}
 	turbulentModels = []string{"gnielinski", "dittus-boelter"}
 	laminarEntries  = []string{"combined", "thermal"}
+	developments    = []string{"combined", "thermal", "full"}
+	transitions     = []string{"interpolate", "interpolate-4000", "turbulent"}
+	heatedWalls     = map[string]duct.Walls{"all": duct.AllWalls, "two-long": duct.TwoLongWalls, "one-long": duct.OneLongWall}
 )
 
 func parseChannel(o *object, m *Model) LinkParams {
@@ -100,7 +112,7 @@ func parseChannel(o *object, m *Model) LinkParams {
 	ok = ok && okL
 	switch {
 	case o.has("fin_count"):
-		for _, k := range []string{"shape", "width", "height", "diameter", "count"} {
+		for _, k := range []string{"shape", "width", "height", "diameter", "count", "heated_walls"} {
 			if o.has(k) {
 				o.r.addf(o.values[k], o.field(k), "not used with fin_count (a plate-fin heat sink takes fin_count, fin_thickness, fin_height, base_width, length and the fin material)")
 				ok = false
@@ -141,29 +153,82 @@ func parseChannel(o *object, m *Model) LinkParams {
 		}
 		c.Geometry = g
 	}
-	if o.has("upstream_length") {
-		u, okU := o.quantity("upstream_length", units.Length)
-		if !okU {
-			return nil
-		}
-		if u < 0 {
-			o.r.addf(o.values["upstream_length"], o.field("upstream_length"), "must not be negative (the length of the same channels before this part, e.g. 60 mm)")
-			return nil
-		}
-		c.Upstream = u
-	}
-	turb, ok1 := o.choice("turbulent", "correlation", turbulentModels)
-	entry, ok2 := o.choice("laminar_entry", "entry model", laminarEntries)
-	if !ok1 || !ok2 {
+	var okU, okD bool
+	c.Upstream, okU = segmentLength(o, "upstream_length", "before")
+	c.Downstream, okD = segmentLength(o, "downstream_length", "after")
+	okO := channelOptions(o, &c.Options)
+	if !okU || !okD || !okO {
 		return nil
 	}
-	if turb == "dittus-boelter" {
-		c.Options.Turbulent = duct.DittusBoelter
-	}
-	if entry == "thermal" {
-		c.Options.Laminar = duct.ThermalEntry
-	}
 	return c
+}
+
+// segmentLength reads upstream_length or downstream_length: zero or a
+// positive length of the same channels before or after this part.
+func segmentLength(o *object, key, where string) (float64, bool) {
+	if !o.has(key) {
+		return 0, true
+	}
+	u, ok := o.quantity(key, units.Length)
+	if !ok {
+		return 0, false
+	}
+	if u < 0 {
+		o.r.addf(o.values[key], o.field(key), "must not be negative (the length of the same channels %s this part, e.g. 60 mm)", where)
+		return 0, false
+	}
+	return u, true
+}
+
+// channelOptions reads the correlation choices of a channel.
+func channelOptions(o *object, opts *duct.Options) bool {
+	turb, ok1 := o.choice("turbulent", "correlation", turbulentModels)
+	trans, ok2 := o.choice("transition", "transition treatment", transitions)
+	entry, ok3 := o.choice("laminar_entry", "entry model", laminarEntries)
+	dev, ok4 := o.choice("development", "flow development", developments)
+	if !ok1 || !ok2 || !ok3 || !ok4 {
+		return false
+	}
+	if entry != "" && dev != "" {
+		o.r.addf(o.values["laminar_entry"], o.field("laminar_entry"), "give development or its older name laminar_entry, not both")
+		return false
+	}
+	if dev == "" {
+		dev = entry
+	}
+	if turb == "dittus-boelter" {
+		opts.Turbulent = duct.DittusBoelter
+	}
+	switch trans {
+	case "turbulent":
+		opts.Transition = duct.TransitionTurbulent
+	case "interpolate-4000":
+		opts.Transition = duct.TransitionInterpolate4000
+	}
+	switch dev {
+	case "thermal":
+		opts.Laminar = duct.ThermalEntry
+	case "full":
+		opts.Developed = true
+	}
+	return true
+}
+
+// walls reads heated_walls of plain rectangular channels.
+func walls(o *object, shape string) (duct.Walls, bool) {
+	if !o.has("heated_walls") {
+		return duct.AllWalls, true
+	}
+	names := []string{"all", "two-long", "one-long"}
+	w, ok := o.choice("heated_walls", "heated walls", names)
+	if !ok {
+		return duct.AllWalls, false
+	}
+	if shape != "rectangular" && w != "all" {
+		o.r.addf(o.values["heated_walls"], o.field("heated_walls"), "only rectangular channels can be heated on some walls (a %s channel is heated all round)", shape)
+		return duct.AllWalls, false
+	}
+	return heatedWalls[w], true
 }
 
 // passage reads the cross-section of plain channels.
@@ -181,11 +246,13 @@ func passage(o *object, length float64) (duct.Duct, int, bool) {
 	if o.has("count") {
 		n, okN = o.count("count", 1, maxPassages)
 	}
+	heated, okW := walls(o, shape)
+	okN = okN && okW
 	switch shape {
 	case "rectangular":
 		w, ok1 := o.positive("width", units.Length, true)
 		h, ok2 := o.positive("height", units.Length, true)
-		return duct.Duct{Shape: duct.Rectangular, Width: w, Height: h, Length: length}, n, ok1 && ok2 && okN
+		return duct.Duct{Shape: duct.Rectangular, Width: w, Height: h, Length: length, Heated: heated}, n, ok1 && ok2 && okN
 	case "circular":
 		d, ok1 := o.positive("diameter", units.Length, true)
 		return duct.Duct{Shape: duct.Circular, Diameter: d, Length: length}, n, ok1 && okN

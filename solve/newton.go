@@ -301,6 +301,7 @@ type work struct {
 	shift     *sparse.Matrix
 	capacity  []float64
 	dtau      float64 // the last pseudo time step; 0 until the first
+	minShift  []float64
 	// lastShifted is set when the last step taken was pseudo-transient.
 	lastShifted bool
 }
@@ -348,7 +349,7 @@ func (w *work) withinTolerance(x, f, mag []float64, jac *sparse.Matrix) bool {
 // that no residual can be asked to beat: a heat balance computed from
 // absolute temperatures, G·(T_a − T_b) with T ≈ 300 K, carries rounding
 // errors of about ε·G·T whatever the heat it moves.
-const roundOff = 1e3 * 0x1p-52
+const roundOff = 16 * 0x1p-52
 
 // tolerance returns the largest residual accepted for equation i:
 // ResidualTolerance of its magnitude, plus the round-off of its terms
@@ -486,16 +487,17 @@ func (w *work) pseudoStep(x []float64) error {
 	if w.dtau > 0 {
 		dtau = math.Max(dtau, 2*w.dtau)
 	}
-	// However small the residual, the shift stays above 1e-10 of each
-	// row's largest entry, so that the shifted matrix is regular.
+	// However small the residual, each row's shift stays above 1e-10 of
+	// the row's largest entry, so that the shifted matrix is regular.
+	if len(w.minShift) != n {
+		w.minShift = make([]float64, n)
+	}
 	for i := 0; i < n; i++ {
 		big := 0.0
 		for k := w.jac.RowPtr[i]; k < w.jac.RowPtr[i+1]; k++ {
 			big = math.Max(big, math.Abs(w.jac.Val[k]))
 		}
-		if big > 0 {
-			dtau = math.Min(dtau, w.capacity[i]/(1e-10*big))
-		}
+		w.minShift[i] = 1e-10 * big
 	}
 	var err error
 	defer func() { w.dtau = dtau }()
@@ -505,7 +507,7 @@ func (w *work) pseudoStep(x []float64) error {
 				w.shift.Val[k] = w.jac.Val[k]
 			}
 			k := w.jac.Index(i, i)
-			mu := w.capacity[i] / dtau
+			mu := math.Max(w.capacity[i]/dtau, w.minShift[i])
 			// The dissipative sign: the shift strengthens the diagonal.
 			if w.shift.Val[k] > 0 {
 				w.shift.Val[k] += mu

@@ -1,10 +1,8 @@
-// Package sparse holds the compressed sparse row (CSR) matrices that the
-// network assembles its Jacobian into and that the linear solvers read.
-//
 // A Matrix is built in two phases, as in circuit simulators: a Builder
 // collects the structural non-zeros once (which node touches which), then the
 // numeric values are cleared and re-stamped at every Newton iteration without
 // allocating.
+
 package sparse
 
 import (

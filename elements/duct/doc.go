@@ -26,20 +26,37 @@
 //     temperature with simultaneously developing velocity and temperature
 //     (Stephan 1959 for tubes and plates, Muzychka & Yovanovich 2004 for
 //     rectangles, with its fully developed term replaced by Shah & London's
-//     so that long ducts tend to the exact value), never below the fully
-//     developed value of Shah & London (1978); apparent friction from
-//     Muzychka & Yovanovich (2009).
-//   - transitional, 2300 < Re < 10⁴: the Gnielinski (2013) linear blend
-//     between the laminar values at Re = 2300 (actual length) and the
-//     turbulent values at Re = 10⁴, applied to Nu and to f alike.
+//     so that long ducts tend to the exact value), or with a developed
+//     velocity (Hausen 1943), never below the fully developed value of
+//     Shah & London (1978) for the heated walls; or that fully developed
+//     value throughout (Options.Developed).
+//   - transitional, 2300 < Re < 10⁴: Gnielinski's interpolation between
+//     the laminar value at Re = 2300 (actual length) and the turbulent
+//     value at Re = 10⁴ (VDI Heat Atlas G1) or at 4000 (Gnielinski 2013),
+//     or the turbulent correlation applied from Re = 2300
+//     (Options.Transition); always with a warning that Nu is uncertain
+//     there.
 //   - turbulent, Re ≥ 10⁴: Gnielinski (1976) with the Petukhov (1970)
-//     friction factor, or Dittus & Boelter (1930); friction from Churchill
-//     (1977) with the relative roughness.
+//     friction factor, or Dittus & Boelter (1930).
 //
-// The blend makes Nu(Re) and f(Re) continuous, so Newton iterations do not
-// jump between regimes. Branches are taken on the value; the derivative is
-// that of the branch taken, so the derivative has steps at 2300 and 10⁴ but
-// the value does not.
+// The friction factor in every regime is Churchill's (1977) all-regime
+// equation with the duct's own laminar friction (Muzychka & Yovanovich 2009
+// apparent friction, or the fully developed f·Re/Re) as its laminar term,
+// so f(Re) is continuous and follows Colebrook in turbulent flow. With the
+// interpolation, Nu(Re) is continuous too, so Newton iterations do not jump
+// between regimes. Branches are taken on the value; the derivative is that
+// of the branch taken, so the derivative of Nu has steps at 2300 and 10⁴
+// but the value does not.
+//
+// Segment gives the mean values of a stretch of a longer duct, for
+// channels split along the flow.
+//
+// # Heated walls
+//
+// Duct.Heated says which walls take heat (all, the two long walls, one
+// long wall); the others are adiabatic. Nu is always on Dh = 4A/P of the
+// whole wetted perimeter and per heated area; the fully developed laminar
+// Nu_T is that of the heated walls (Duct.LaminarNuT).
 //
 // # Sources
 //

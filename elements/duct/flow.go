@@ -8,9 +8,9 @@ import (
 	"github.com/heatgraph/heatgraph/elements/validity"
 )
 
-// Regime boundaries of Flow, after Gnielinski (2013), On heat transfer in
-// tubes, Int. J. Heat Mass Transfer 63:134–140: laminar up to ReLaminar,
-// turbulent from ReTurbulent, a linear blend between.
+// Regime boundaries of Flow, after Gnielinski, VDI Heat Atlas (2010),
+// chapter G1, Heat transfer in pipe flow (from memory): laminar up to
+// ReLaminar, turbulent from ReTurbulent, transitional between.
 const (
 	ReLaminar   = 2300.0
 	ReTurbulent = 1e4
@@ -47,27 +47,67 @@ const (
 	// (2004) for rectangles. It suits air entering a channel from a plenum.
 	CombinedEntry Laminar = iota
 	// ThermalEntry assumes a developed velocity profile: Hausen (1943) for
-	// tubes, the engineering substitution HausenRectangular otherwise. It
+	// tubes, PlatesThermalEntry for plates, the engineering substitution
+	// HausenRectangular for rectangles. It
 	// suits a heated section behind an unheated starting length.
 	ThermalEntry
 )
 
+// Transition selects how Flow treats the transition range
+// ReLaminar < Re < ReTurbulent.
+type Transition int
+
+const (
+	// TransitionInterpolate is Gnielinski's linear interpolation as given in
+	// the VDI Heat Atlas (2010), chapter G1, Heat transfer in pipe flow (from
+	// memory):
+	//
+	//	Nu = (1 − γ)·Nu_lam(2300) + γ·Nu_turb(10⁴),  γ = (Re − 2300)/(10⁴ − 2300),
+	//
+	// with the laminar value at the actual length and the turbulent value
+	// of the selected Turbulent correlation (Gnielinski 1976 in the
+	// published form).
+	TransitionInterpolate Transition = iota
+	// TransitionTurbulent applies the selected Turbulent correlation at the
+	// actual Re from Re = 2300 on: common hand-calculation practice, not a
+	// published method, and below the correlations' own Reynolds ranges. Nu
+	// jumps at Re = 2300.
+	TransitionTurbulent
+	// TransitionInterpolate4000 is the same interpolation between Re = 2300
+	// and Re = 4000, as in Gnielinski (2013), On heat transfer in tubes,
+	// Int. J. Heat Mass Transfer 63:134–140 (its abstract: "a linear
+	// interpolation between the Nusselt numbers at Re = 2300 and Re = 4000";
+	// a corrigendum followed in vol. 81, 2015, not seen), with the
+	// turbulent correlation itself from 4000 to 10⁴.
+	TransitionInterpolate4000
+)
+
 // Options selects the correlations of Flow. The zero value selects
-// Gnielinski, the combined entry, a cooled fluid and no short-duct factor.
+// Gnielinski, the combined entry, the Gnielinski (2013) transition
+// interpolation, a cooled fluid and no short-duct factor.
 type Options struct {
-	Turbulent Turbulent // turbulent Nusselt correlation
-	Laminar   Laminar   // laminar developing-flow model
-	Heating   bool      // fluid heated by the wall: Dittus–Boelter exponent 0.4, else 0.3
-	ShortDuct bool      // multiply the turbulent Nu by ShortDuctFactor(L/Dh)
+	Turbulent  Turbulent  // turbulent Nusselt correlation
+	Laminar    Laminar    // laminar developing-flow model
+	Transition Transition // treatment of 2300 < Re < 10⁴
+	// Developed takes the flow as hydrodynamically and thermally fully
+	// developed over the whole length: laminar Nu = Nu_T of the heated
+	// walls, friction without the entry term, no short-duct factor. It
+	// overrides Laminar and ShortDuct.
+	Developed bool
+	Heating   bool // fluid heated by the wall: Dittus–Boelter exponent 0.4, else 0.3
+	ShortDuct bool // multiply the turbulent Nu by ShortDuctFactor(L/Dh)
 }
 
 // Result is the mean heat transfer and friction of a duct.
 type Result struct {
 	Nu                  dual.Num // mean Nusselt number on Dh over the length
 	F                   dual.Num // apparent Darcy friction factor over the length
+	NuDeveloped         dual.Num // fully developed Nu of the same regime: the least a mean Nu can be
+	FDeveloped          dual.Num // fully developed F of the same regime
 	Regime              string   // RegimeLaminar, RegimeTransitional or RegimeTurbulent
 	Developing          bool     // laminar and shorter than the thermal entrance length
 	Correlation         string   // source of Nu
+	Transition          string   // treatment of the transition range, when Regime is RegimeTransitional
 	FrictionCorrelation string   // source of F
 	EntryHydro          float64  // hydrodynamic entrance length in m
 	EntryThermal        float64  // thermal entrance length in m
@@ -81,14 +121,29 @@ const (
 	corrStephanPlates      = "Stephan (1959) combined entry, parallel plates"
 	corrHausen             = "Hausen (1943) thermal entry"
 	corrHausenRectangular  = "Hausen form with Shah-London Nu_T (engineering substitution)"
+	corrPlatesThermal      = "Leveque limit and Shah-London Nu_T, cube superposition (thermal entry, parallel plates)"
 	corrShahLondon         = "Shah-London (1978) fully developed"
 	corrGnielinski         = "Gnielinski (1976)/Petukhov"
 	corrDittusBoelter      = "Dittus-Boelter (1930)"
-	corrTransition         = "Gnielinski (2013) transition blend"
-	corrFrictionLaminar    = "Muzychka-Yovanovich (2009) apparent friction"
-	corrFrictionTurbulent  = "Churchill (1977)"
-	corrFrictionTransition = "Gnielinski (2013) blend of Muzychka-Yovanovich (2009) and Churchill (1977)"
+	corrPartialWalls       = ", fully developed term of the heated walls (engineering substitution)"
+	corrFromRe             = ", applied from Re %g"
+	corrFriction           = "Churchill (1977), laminar term: Muzychka-Yovanovich (2009) apparent friction of the duct"
+	corrFrictionDeveloped  = "Churchill (1977), laminar term: Shah-London (1978) fully developed f·Re of the duct"
 )
+
+// Names of the transition treatments reported in Result.Transition.
+const (
+	TransitionNameInterpolate     = "Gnielinski interpolation between Re 2300 and 10^4 (VDI Heat Atlas G1)"
+	TransitionNameInterpolate4000 = "Gnielinski (2013) interpolation between Re 2300 and 4000"
+	TransitionNameTurbulent       = "turbulent correlation applied from Re 2300 (hand-calculation practice)"
+)
+
+// TransitionWarning is the warning Flow gives in the transition range. The
+// size of the uncertainty is from memory: measured Nusselt numbers between
+// Re = 2300 and 10⁴ scatter widely because the onset of turbulence depends
+// on the inlet shape and on disturbances (Gnielinski 2013 discusses this).
+const TransitionWarning = "transitional flow (2300 < Re < 10^4): heat transfer and friction are uncertain, " +
+	"Nu by ±20 % or more, since the onset of turbulence depends on the inlet and on disturbances (from memory)"
 
 // Flow returns the mean Nusselt number and apparent Darcy friction factor of
 // air flowing through d at Reynolds number re and Prandtl number pr, both on
@@ -100,53 +155,91 @@ const (
 // Laminar (re ≤ ReLaminar): Nu = max(developing, fully developed Nu_T), both
 // continuous in Re and Pr, so Nu is continuous; the developing model follows
 // o.Laminar (for rectangles in combined entry MuzychkaYovanovichShahLondon,
-// whose long-duct limit is the exact Nu_T). F = MuzychkaYovanovichF with the
-// fully developed f·Re of d.
+// whose long-duct limit is the exact Nu_T); with o.Developed, Nu = Nu_T.
+// Nu_T is that of the heated walls (Duct.LaminarNuT); when not all walls are
+// heated, the developing models keep their entry terms and take the fully
+// developed term of the heated walls (an engineering substitution).
 // Entrance lengths 0.05·Re·Dh (hydrodynamic) and 0.05·Re·Pr·Dh (thermal).
 //
 // Turbulent (re ≥ ReTurbulent): Nu from o.Turbulent, times ShortDuctFactor
-// when o.ShortDuct; F = Churchill with the relative roughness. Nu assumes a
-// smooth wall. Entrance lengths about 10·Dh (rule of thumb), also used in the
-// transitional range.
+// when o.ShortDuct (and not o.Developed). Nu assumes a smooth wall and is
+// taken on Dh of the wetted perimeter also when only some walls are heated,
+// h then applying to the heated walls only (the usual convention; some
+// authors use the heated diameter 4A/P_heated instead). Entrance lengths
+// about 10·Dh (rule of thumb), also used in the transitional range.
 //
-// Transitional: with γ = (Re − 2300)/(10⁴ − 2300),
-// Nu = (1 − γ)·Nu_lam(2300) + γ·Nu_turb(10⁴) (Gnielinski 2013), the laminar
-// value at the actual length, and F blended alike.
+// Transitional: o.Transition selects TransitionInterpolate (VDI Heat Atlas
+// G1), TransitionInterpolate4000 (Gnielinski 2013) or TransitionTurbulent;
+// in every case Result.Warnings carries TransitionWarning.
+//
+// F, in every regime, is ChurchillDuct with the laminar friction of the duct
+// as its laminar term: the Muzychka & Yovanovich (2009) apparent friction
+// over the length, or with o.Developed the fully developed f·Re/Re. For a
+// long circular tube this is Churchill (1977) itself, which follows Colebrook
+// in turbulent flow and bridges the transition range continuously; its
+// turbulent term already lifts f near the top of the laminar range (0.1 %
+// above 64/Re at Re 2000, 11 % at 2300, for a long tube).
+//
+// NuDeveloped and FDeveloped are the same model's values for fully
+// developed flow at the same Re and Pr: the least the mean over any stretch
+// of the duct can be.
 func Flow(d Duct, re, pr dual.Num, o Options) Result {
 	if !(re.V > 0) || !(pr.V > 0) {
+		nu := dual.C(d.LaminarNuT())
 		return Result{
-			Nu:          dual.C(d.LaminarNuT()),
+			Nu:          nu,
 			F:           dual.C(math.Inf(1)),
+			NuDeveloped: nu,
+			FDeveloped:  dual.C(math.Inf(1)),
 			Regime:      RegimeLaminar,
 			Correlation: corrShahLondon,
 			Warnings:    []string{fmt.Sprintf("Re = %.4g and Pr = %.4g must be positive", re.V, pr.V)},
 		}
 	}
 	dh := d.Dh()
+	dev := o
+	dev.Developed = true
 	var r Result
+	r.F, r.FrictionCorrelation = friction(d, re, o.Developed)
+	r.FDeveloped, _ = friction(d, re, true)
 	switch {
 	case re.V <= ReLaminar:
 		r.Regime = RegimeLaminar
-		r.Nu, r.Correlation = laminarNu(d, re, pr, o.Laminar)
-		r.F, r.FrictionCorrelation = laminarF(d, re), corrFrictionLaminar
+		r.Nu, r.Correlation = laminarNu(d, re, pr, o)
+		r.NuDeveloped = dual.C(d.LaminarNuT())
 		r.EntryHydro = 0.05 * re.V * dh
 		r.EntryThermal = 0.05 * re.V * pr.V * dh
-		r.Developing = d.Length < r.EntryThermal
+		r.Developing = !o.Developed && d.Length < r.EntryThermal
 		r.Warnings = laminarWarnings(d, pr.V, o)
 	case re.V < ReTurbulent:
-		g := re.AddC(-ReLaminar).Scale(1 / (ReTurbulent - ReLaminar))
-		lam, _ := laminarNu(d, dual.C(ReLaminar), pr, o.Laminar)
-		turb, _ := turbulentNu(d, dual.C(ReTurbulent), pr, o)
 		r.Regime = RegimeTransitional
-		r.Nu, r.Correlation = blend(g, lam, turb), corrTransition
-		r.F = blend(g, laminarF(d, dual.C(ReLaminar)), turbulentF(d, dual.C(ReTurbulent)))
-		r.FrictionCorrelation = corrFrictionTransition
 		r.EntryHydro, r.EntryThermal = 10*dh, 10*dh
-		r.Warnings = append(laminarWarnings(d, pr.V, o), turbulentWarnings(d, ReTurbulent, pr.V, o)...)
+		high := ReTurbulent
+		switch o.Transition {
+		case TransitionTurbulent:
+			high = ReLaminar
+			r.Transition = TransitionNameTurbulent
+		case TransitionInterpolate4000:
+			high = 4000
+			r.Transition = TransitionNameInterpolate4000
+		default:
+			r.Transition = TransitionNameInterpolate
+		}
+		if re.V >= high {
+			r.Nu, r.Correlation = turbulentNu(d, re, pr, o)
+			r.Correlation += fmt.Sprintf(corrFromRe, high)
+			r.NuDeveloped, _ = turbulentNu(d, re, pr, dev)
+			r.Warnings = turbulentWarnings(d, re.V, pr.V, o)
+		} else {
+			r.Nu, r.Correlation = transitionNu(d, re, pr, o, high)
+			r.NuDeveloped, _ = transitionNu(d, re, pr, dev, high)
+			r.Warnings = append(laminarWarnings(d, pr.V, o), turbulentWarnings(d, high, pr.V, o)...)
+		}
+		r.Warnings = append(r.Warnings, TransitionWarning)
 	default:
 		r.Regime = RegimeTurbulent
 		r.Nu, r.Correlation = turbulentNu(d, re, pr, o)
-		r.F, r.FrictionCorrelation = turbulentF(d, re), corrFrictionTurbulent
+		r.NuDeveloped, _ = turbulentNu(d, re, pr, dev)
 		r.EntryHydro, r.EntryThermal = 10*dh, 10*dh
 		r.Warnings = turbulentWarnings(d, re.V, pr.V, o)
 	}
@@ -158,41 +251,68 @@ func Flow(d Duct, re, pr dual.Num, o Options) Result {
 	return r
 }
 
+// transitionNu returns Gnielinski's interpolation up to Re = high and its
+// name: with γ = (Re − 2300)/(high − 2300),
+// Nu = (1 − γ)·Nu_lam(2300) + γ·Nu_turb(high), the laminar value at the
+// actual length.
+func transitionNu(d Duct, re, pr dual.Num, o Options, high float64) (dual.Num, string) {
+	g := re.AddC(-ReLaminar).Scale(1 / (high - ReLaminar))
+	lam, lamName := laminarNu(d, dual.C(ReLaminar), pr, o)
+	turb, turbName := turbulentNu(d, dual.C(high), pr, o)
+	return blend(g, lam, turb), fmt.Sprintf("Gnielinski interpolation: %s at Re 2300, %s at Re %g", lamName, turbName, high)
+}
+
 // blend returns (1 − g)·a + g·b.
 func blend(g, a, b dual.Num) dual.Num {
 	return a.Add(g.Mul(b.Sub(a)))
 }
 
 // laminarNu returns the mean laminar Nu of d, never below the fully developed
-// Nu_T, and the name of the correlation that gave it. With the present
-// models the bound is a safeguard: Stephan and Hausen lie above Nu_T by
-// construction, Muzychka & Yovanovich at least 2.9 % above it for
-// 0.001 ≤ α ≤ 1.
-func laminarNu(d Duct, re, pr dual.Num, m Laminar) (dual.Num, string) {
+// Nu_T of its heated walls, and the name of the correlation that gave it.
+// With the present models the bound is a safeguard: Stephan and Hausen lie
+// above Nu_T by construction, Muzychka & Yovanovich at least 2.9 % above it
+// for 0.001 ≤ α ≤ 1.
+func laminarNu(d Duct, re, pr dual.Num, o Options) (dual.Num, string) {
+	fd := d.LaminarNuT()
+	if o.Developed {
+		return dual.C(fd), corrShahLondon
+	}
 	ld := d.lengthRatio()
 	var nu dual.Num
 	var name string
 	switch {
-	case m == ThermalEntry && d.Shape == Circular:
+	case o.Laminar == ThermalEntry && d.Shape == Circular:
 		nu, name = Hausen(re, pr, ld), corrHausen
-	case m == ThermalEntry:
-		nu, name = HausenRectangular(re, pr, d.Aspect(), ld), corrHausenRectangular
+	case o.Laminar == ThermalEntry && d.Shape == ParallelPlates:
+		nu, name = PlatesThermalEntry(re, pr, fd, ld), corrPlatesThermal
+	case o.Laminar == ThermalEntry:
+		nu, name = hausenForm(re, pr, fd, ld), corrHausenRectangular
 	case d.Shape == Circular:
 		nu, name = StephanTube(re, pr, ld), corrStephanTube
 	case d.Shape == ParallelPlates:
-		nu, name = StephanPlates(re, pr, ld), corrStephanPlates
+		nu, name = StephanPlates(re, pr, ld).AddC(fd-ShahLondonNuT(0)), corrStephanPlates
 	default:
-		nu, name = MuzychkaYovanovichShahLondon(re, pr, d.Aspect(), ld), corrMuzychkaYovanovich
+		a := d.Aspect()
+		nu, name = muzychkaYovanovich(re, pr, a, ld, fd*(1+a)/(2*math.Sqrt(a))), corrMuzychkaYovanovich
 	}
-	if fd := d.LaminarNuT(); nu.V < fd {
+	if d.Heated != AllWalls {
+		name += corrPartialWalls
+	}
+	if nu.V < fd {
 		return dual.C(fd), corrShahLondon
 	}
 	return nu, name
 }
 
-// laminarF returns the apparent laminar Darcy friction factor of d.
-func laminarF(d Duct, re dual.Num) dual.Num {
-	return MuzychkaYovanovichF(re, d.LaminarFRe(), d.lengthRatio())
+// friction returns the Darcy friction factor of d at re and its source:
+// ChurchillDuct with the apparent laminar friction of the length, or the
+// fully developed one when developed.
+func friction(d Duct, re dual.Num, developed bool) (dual.Num, string) {
+	if developed {
+		return ChurchillDuct(re, re.Inv().Scale(d.LaminarFRe()), d.RelativeRoughness()), corrFrictionDeveloped
+	}
+	lam := MuzychkaYovanovichF(re, d.LaminarFRe(), d.lengthRatio())
+	return ChurchillDuct(re, lam, d.RelativeRoughness()), corrFriction
 }
 
 // turbulentNu returns the turbulent Nu of d selected by o and its source.
@@ -201,21 +321,18 @@ func turbulentNu(d Duct, re, pr dual.Num, o Options) (dual.Num, string) {
 	if o.Turbulent == DittusBoelter {
 		nu, name = DittusBoelterNu(re, pr, o.Heating), corrDittusBoelter
 	}
-	if o.ShortDuct {
+	if o.ShortDuct && !o.Developed {
 		nu = nu.Scale(ShortDuctFactor(d.lengthRatio()))
+		name += ", short-duct factor"
 	}
 	return nu, name
-}
-
-// turbulentF returns the turbulent Darcy friction factor of d.
-func turbulentF(d Duct, re dual.Num) dual.Num {
-	return Churchill(re, d.RelativeRoughness())
 }
 
 // laminarWarnings checks the inputs of the laminar model of Flow.
 func laminarWarnings(d Duct, pr float64, o Options) []string {
 	var w warnings
 	switch {
+	case o.Developed:
 	case o.Laminar == ThermalEntry:
 		w.check(HausenPr, pr)
 	case d.Shape == Circular:

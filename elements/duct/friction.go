@@ -40,10 +40,25 @@ func MuzychkaYovanovichF(re dual.Num, fRe, lOverDh float64) dual.Num {
 //
 // with e the relative roughness. It equals 64/Re in laminar flow.
 func Churchill(re dual.Num, relRough float64) dual.Num {
+	return ChurchillDuct(re, re.Inv().Scale(64), relRough)
+}
+
+// ChurchillDuct is Churchill (1977) with its laminar term 64/Re replaced by
+// fLam, the laminar Darcy friction factor of the duct at the same Re:
+//
+//	f = 8·[(fLam/8)¹² + (A + B)^(−3/2)]^(1/12).
+//
+// Churchill built the equation by blending the laminar and the turbulent
+// asymptotes with these exponents; giving it the laminar friction of a
+// rectangle, or the apparent friction of a developing flow, keeps that
+// blend and the turbulent branch while the laminar end becomes the duct's
+// own. This substitution is the package's, not the paper's; with
+// fLam = 64/Re it is the published equation.
+func ChurchillDuct(re, fLam dual.Num, relRough float64) dual.Num {
 	inv := re.Inv()
 	a := dual.Pow(dual.Log(dual.Pow(inv.Scale(7), 0.9).AddC(0.27*relRough)).Scale(-2.457), 16)
 	b := dual.Pow(inv.Scale(37530), 16)
-	s := dual.Pow(inv.Scale(8), 12).Add(dual.Pow(a.Add(b), -1.5))
+	s := dual.Pow(fLam.Scale(1.0/8), 12).Add(dual.Pow(a.Add(b), -1.5))
 	return dual.Pow(s, 1.0/12).Scale(8)
 }
 

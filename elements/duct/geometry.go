@@ -43,6 +43,9 @@ type Duct struct {
 	Gap       float64 // plate spacing of ParallelPlates
 	Length    float64 // flow length
 	Roughness float64 // absolute wall roughness; 0 for a smooth wall
+	// Heated says which walls take part in the heat transfer, the others
+	// being adiabatic; the zero value heats all walls.
+	Heated Walls
 }
 
 // FlowArea returns the cross-sectional flow area of the channel in m².
@@ -121,6 +124,12 @@ func (d Duct) Validate() error {
 		dims = []dim{{"Gap", d.Gap}, {"Width", d.Width}}
 	default:
 		return fmt.Errorf("duct: unknown shape %v", d.Shape)
+	}
+	if d.Heated != AllWalls && d.Shape == Circular {
+		return fmt.Errorf("duct: a circular duct is heated all round, not on %v", d.Heated)
+	}
+	if d.Heated < AllWalls || d.Heated > OneLongWall {
+		return fmt.Errorf("duct: unknown heated walls %v", d.Heated)
 	}
 	dims = append(dims, dim{"Length", d.Length})
 	for _, x := range dims {

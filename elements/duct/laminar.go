@@ -51,15 +51,6 @@ func (d Duct) LaminarFRe() float64 {
 	return ShahLondonFRe(d.Aspect())
 }
 
-// LaminarNuT returns the fully developed laminar Nusselt number of d for a
-// uniform wall temperature (Shah & London 1978).
-func (d Duct) LaminarNuT() float64 {
-	if d.Shape == Circular {
-		return CircularNuT
-	}
-	return ShahLondonNuT(d.Aspect())
-}
-
 // LaminarNuH returns the fully developed laminar Nusselt number of d for a
 // uniform axial heat flux (H1 for rectangles; Shah & London 1978).
 func (d Duct) LaminarNuH() float64 {
@@ -218,10 +209,35 @@ func Hausen(re, pr dual.Num, lOverD float64) dual.Num {
 //	Nu_m = Nu_T(α) + 0.0668·Gz/(1 + 0.04·Gz^(2/3)),  Gz = Re·Pr·Dh/L.
 //
 // This is an engineering substitution, not a published correlation: it has
-// the right long-duct limit, and its entry term is that of the tube. lOverDh
-// is L/Dh; re and pr must be positive.
+// the right long-duct limit, and its entry term is that of the tube. Against
+// this package's numerical solution of the rectangular Graetz problem it
+// stays within 12 % with all walls heated (α = 0.25 and 1) and within 20 %
+// for one heated wall of a square duct, over 10⁻³ ≤ x* ≤ 0.3 (Flow uses it
+// with the Nu_T of the heated walls). lOverDh is L/Dh; re and pr must be
+// positive.
 func HausenRectangular(re, pr dual.Num, alpha, lOverDh float64) dual.Num {
 	return hausenForm(re, pr, ShahLondonNuT(alpha), lOverDh)
+}
+
+// PlatesThermalEntry returns the mean Nusselt number (on Dh = 2·gap, per
+// heated area) over the length of a parallel-plate channel with a developed
+// velocity profile and a uniform temperature of the heated plates (thermal
+// entry, the Graetz problem), as the superposition of its two limits:
+//
+//	Nu_m = [Nu_T³ + (1.849·x*^(−1/3))³]^(1/3),  x* = (L/Dh)/(Re·Pr),
+//
+// with 1.849·x*^(−1/3) the Lévêque short-length mean and Nu_T the fully
+// developed value, 7.541 with both plates heated and 4.861 with one
+// (Shah & London 1978, Laminar Flow Forced Convection in Ducts; constants
+// from memory). The cube superposition follows Churchill & Usagi (1972);
+// the exponent 3 is that of the VDI Heat Atlas forms for the thermal entry
+// (from memory). This package's tests solve the Graetz problem numerically:
+// the limits are reproduced and the superposition stays within 5 % for
+// 10⁻⁴ ≤ x* ≤ 1. nuT is the fully developed value, lOverDh is L/Dh; re and
+// pr must be positive.
+func PlatesThermalEntry(re, pr dual.Num, nuT, lOverDh float64) dual.Num {
+	leveque := dual.Pow(inverseGraetz(re, pr, lOverDh), -1.0/3).Scale(1.849)
+	return dual.Pow(dual.Pow(leveque, 3).AddC(nuT*nuT*nuT), 1.0/3)
 }
 
 // hausenForm returns nu0 + 0.0668·Gz/(1 + 0.04·Gz^(2/3)).

@@ -381,3 +381,23 @@ func TestUsageHintOnlyForCommandLine(t *testing.T) {
 	assert.Equal(t, exit.BadInput, code)
 	assert.Contains(t, stderr, "--help")
 }
+
+// A heat input that takes more heat out of a node than its links can bring
+// has no physical solution: the solve says so and why, exit status 3, with
+// no result and no usage hint.
+func TestNegativePowerBelowAbsoluteZero(t *testing.T) {
+	path := writeModel(t, `
+ambient: {temperature: 25 degC}
+nodes:
+  - {id: cooler, power: -50 W, limit: 60 degC}
+links:
+  - {kind: lumped, from: cooler, to: ambient, conductance: 0.1 W/K}
+`)
+	code, out, stderr := run("solve", path)
+	assert.Equal(t, exit.NotConverged, code, stderr)
+	assert.Empty(t, out)
+	assert.Contains(t, stderr, "every step left the physical domain")
+	assert.Contains(t, stderr, `node "cooler" would be at`)
+	assert.Contains(t, stderr, "below absolute zero")
+	assert.NotContains(t, stderr, "--help")
+}

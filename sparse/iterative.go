@@ -1,0 +1,333 @@
+package sparse
+
+import (
+	"fmt"
+	"math"
+)
+
+// Defaults of the iterative solvers.
+const (
+	// DefaultTol is the default relative residual ‖b − A·x‖₂/‖b‖₂.
+	DefaultTol = 1e-10
+	// DefaultMaxIter is the default iteration limit.
+	DefaultMaxIter = 5000
+)
+
+// iterBase holds what CG and BiCGStab share.
+type iterBase struct {
+	// Tol is the relative residual to reach, default DefaultTol.
+	Tol float64
+	// MaxIter is the iteration limit, default DefaultMaxIter.
+	MaxIter int
+	// Precond is the preconditioner; nil means ILU0 (IC(0) for CG).
+	Precond Preconditioner
+	// WarmStart makes Solve start from the x it is given.
+	WarmStart bool
+
+	a      Matrix // pattern shared with the caller's matrix, values copied
+	ok     bool
+	iters  int
+	relres float64
+	w      [][]float64
+}
+
+func (s *iterBase) SetTolerance(rel float64) { s.Tol = rel }
+func (s *iterBase) SetWarmStart(on bool)     { s.WarmStart = on }
+func (s *iterBase) Stats() (int, float64)    { return s.iters, s.relres }
+
+// Analyse records the pattern; iterative solvers need no ordering.
+func (s *iterBase) Analyse(a *Matrix) error {
+	s.a = Matrix{N: a.N, RowPtr: a.RowPtr, Col: a.Col}
+	s.ok = false
+	return nil
+}
+
+func (s *iterBase) factorize(a *Matrix, sign float64) error {
+	s.ok = false
+	if s.a.RowPtr == nil {
+		s.Analyse(a)
+	}
+	if a.N != s.a.N || len(a.Col) != len(s.a.Col) {
+		return ErrPattern
+	}
+	if err := checkFinite(a); err != nil {
+		return err
+	}
+	if cap(s.a.Val) < len(a.Val) {
+		s.a.Val = make([]float64, len(a.Val))
+	}
+	s.a.Val = s.a.Val[:len(a.Val)]
+	copy(s.a.Val, a.Val)
+	s.a.RowPtr, s.a.Col = a.RowPtr, a.Col
+	if s.Precond == nil {
+		s.Precond = &ILU0{}
+	}
+	if err := s.Precond.Setup(&s.a, sign); err != nil {
+		return err
+	}
+	s.ok = true
+	return nil
+}
+
+func (s *iterBase) vectors(k int) [][]float64 {
+	n := s.a.N
+	if len(s.w) != k || len(s.w[0]) != n {
+		s.w = make([][]float64, k)
+		for i := range s.w {
+			s.w[i] = make([]float64, n)
+		}
+	}
+	return s.w
+}
+
+func (s *iterBase) limits() (float64, int) {
+	tol, maxIter := s.Tol, s.MaxIter
+	if tol <= 0 {
+		tol = DefaultTol
+	}
+	if maxIter <= 0 {
+		maxIter = DefaultMaxIter
+	}
+	return tol, maxIter
+}
+
+// start sets x to its initial guess and r = b − A·x, and returns ‖b‖₂
+// and ‖r‖₂.
+func (s *iterBase) start(x, b, r []float64) (float64, float64) {
+	if !s.WarmStart {
+		clear(x)
+		copy(r, b)
+	} else {
+		s.a.MulVec(r, x)
+		for i := range r {
+			r[i] = b[i] - r[i]
+		}
+	}
+	return norm2(b), norm2(r)
+}
+
+func (s *iterBase) fail(name string, it int, why string) error {
+	tol, _ := s.limits()
+	return fmt.Errorf("%w: %s %s after %d iterations, relative residual %.3g (tolerance %.3g)",
+		ErrNotConverged, name, why, it, s.relres, tol)
+}
+
+// CG is the preconditioned conjugate gradient method (Hestenes & Stiefel
+// 1952; Saad 2003, ch. 9) for symmetric negative definite A: it
+// iterates on −A·x = −b, whose matrix is positive definite, so the
+// preconditioner is built for −A. Its default preconditioner is IC(0)
+// (ILU0 on a symmetric matrix). The residual it checks is the true one,
+// recomputed when the recurrence claims convergence.
+type CG struct{ iterBase }
+
+// NewCG returns a CG solver with the IC(0) preconditioner and defaults.
+func NewCG() *CG { return &CG{} }
+
+// Factorize copies a's values and builds the preconditioner for −A.
+func (s *CG) Factorize(a *Matrix) error { return s.factorize(a, -1) }
+
+// Solve iterates from zero (or from x with WarmStart) until
+// ‖b − A·x‖₂ ≤ Tol·‖b‖₂; failing that within MaxIter iterations, it
+// returns an error wrapping ErrNotConverged, with x the last iterate.
+func (s *CG) Solve(x, b []float64) error {
+	if !s.ok {
+		return fmt.Errorf("%w: no successful factorisation", ErrPattern)
+	}
+	if err := checkLen(s.a.N, x, b); err != nil {
+		return err
+	}
+	tol, maxIter := s.limits()
+	w := s.vectors(4)
+	r, z, p, q := w[0], w[1], w[2], w[3]
+	bn, rn := s.start(x, b, r)
+	s.iters, s.relres = 0, 0
+	if bn == 0 {
+		clear(x)
+		return nil
+	}
+	s.relres = rn / bn
+	if s.relres <= tol {
+		return nil
+	}
+	// Work on M = −A, c = −b: the residual c − M·x is −r.
+	for i := range r {
+		r[i] = -r[i]
+	}
+	s.Precond.Apply(z, r)
+	copy(p, z)
+	rz := dot(r, z)
+	for it := 1; it <= maxIter; it++ {
+		s.a.MulVec(q, p)
+		for i := range q {
+			q[i] = -q[i]
+		}
+		pq := dot(p, q)
+		if !(pq > 0) {
+			s.iters = it
+			return fmt.Errorf("%w: −A is not positive definite along a search direction (iteration %d)", ErrNotDefinite, it)
+		}
+		alpha := rz / pq
+		for i := range x {
+			x[i] += alpha * p[i]
+			r[i] -= alpha * q[i]
+		}
+		s.iters = it
+		s.relres = norm2(r) / bn
+		if s.relres <= tol {
+			// Confirm with the true residual; restart from it if the
+			// recurrence has drifted.
+			s.a.MulVec(r, x)
+			for i := range r {
+				r[i] -= b[i] // c − M·x = −b + A·x
+			}
+			s.relres = norm2(r) / bn
+			if s.relres <= tol {
+				return nil
+			}
+			s.Precond.Apply(z, r)
+			copy(p, z)
+			rz = dot(r, z)
+			continue
+		}
+		s.Precond.Apply(z, r)
+		rzNew := dot(r, z)
+		beta := rzNew / rz
+		rz = rzNew
+		for i := range p {
+			p[i] = z[i] + beta*p[i]
+		}
+	}
+	return s.fail("CG", s.iters, "stopped at the iteration limit")
+}
+
+// BiCGStab is the stabilised biconjugate gradient method (van der Vorst,
+// SIAM J. Sci. Stat. Comput. 13, 1992; Saad 2003, ch. 7) with right
+// preconditioning, for unsymmetric A; its default preconditioner is ILU(0).
+// On a breakdown (ρ or ω zero) it restarts from the current iterate.
+type BiCGStab struct{ iterBase }
+
+// NewBiCGStab returns a BiCGStab solver with the ILU(0) preconditioner and
+// defaults.
+func NewBiCGStab() *BiCGStab { return &BiCGStab{} }
+
+// Factorize copies a's values and builds the preconditioner for A.
+func (s *BiCGStab) Factorize(a *Matrix) error { return s.factorize(a, 1) }
+
+// Solve iterates from zero (or from x with WarmStart) until
+// ‖b − A·x‖₂ ≤ Tol·‖b‖₂; failing that within MaxIter iterations, it
+// returns an error wrapping ErrNotConverged, with x the last iterate.
+func (s *BiCGStab) Solve(x, b []float64) error {
+	if !s.ok {
+		return fmt.Errorf("%w: no successful factorisation", ErrPattern)
+	}
+	if err := checkLen(s.a.N, x, b); err != nil {
+		return err
+	}
+	tol, maxIter := s.limits()
+	w := s.vectors(7)
+	r, rhat, p, v, ph, sh, t := w[0], w[1], w[2], w[3], w[4], w[5], w[6]
+	bn, rn := s.start(x, b, r)
+	s.iters, s.relres = 0, 0
+	if bn == 0 {
+		clear(x)
+		return nil
+	}
+	s.relres = rn / bn
+	if s.relres <= tol {
+		return nil
+	}
+	restart := true
+	var rho, alpha, omega float64
+	restarts := 0
+	for it := 1; it <= maxIter; it++ {
+		if restart {
+			copy(rhat, r)
+			copy(p, r)
+			rho = dot(rhat, r)
+			restart = false
+		} else {
+			rhoNew := dot(rhat, r)
+			if rhoNew == 0 || omega == 0 {
+				restart = true
+				restarts++
+				if restarts > 20 {
+					return s.fail("BiCGStab", it, "broke down")
+				}
+				it--
+				continue
+			}
+			beta := rhoNew / rho * alpha / omega
+			rho = rhoNew
+			for i := range p {
+				p[i] = r[i] + beta*(p[i]-omega*v[i])
+			}
+		}
+		s.Precond.Apply(ph, p)
+		s.a.MulVec(v, ph)
+		rv := dot(rhat, v)
+		if rv == 0 {
+			restart = true
+			restarts++
+			if restarts > 20 {
+				return s.fail("BiCGStab", it, "broke down")
+			}
+			continue
+		}
+		alpha = rho / rv
+		// s = r − α·v, kept in r.
+		for i := range r {
+			r[i] -= alpha * v[i]
+		}
+		s.iters = it
+		if sn := norm2(r); sn/bn <= tol {
+			for i := range x {
+				x[i] += alpha * ph[i]
+			}
+			if s.converged(x, b, r, bn, tol) {
+				return nil
+			}
+			restart = true
+			continue
+		}
+		s.Precond.Apply(sh, r)
+		s.a.MulVec(t, sh)
+		tt := dot(t, t)
+		if tt == 0 {
+			omega = 0
+		} else {
+			omega = dot(t, r) / tt
+		}
+		for i := range x {
+			x[i] += alpha*ph[i] + omega*sh[i]
+			r[i] -= omega * t[i]
+		}
+		s.relres = norm2(r) / bn
+		if s.relres <= tol {
+			if s.converged(x, b, r, bn, tol) {
+				return nil
+			}
+			restart = true
+		}
+	}
+	return s.fail("BiCGStab", s.iters, "stopped at the iteration limit")
+}
+
+// converged recomputes r = b − A·x and reports whether it meets tol.
+func (s *iterBase) converged(x, b, r []float64, bn, tol float64) bool {
+	s.a.MulVec(r, x)
+	for i := range r {
+		r[i] = b[i] - r[i]
+	}
+	s.relres = norm2(r) / bn
+	return s.relres <= tol
+}
+
+func dot(a, b []float64) float64 {
+	s := 0.0
+	for i, v := range a {
+		s += v * b[i]
+	}
+	return s
+}
+
+func norm2(a []float64) float64 { return math.Sqrt(dot(a, a)) }
