@@ -8,6 +8,7 @@ import (
 
 	"github.com/heatgraph/heatgraph/elements"
 	"github.com/heatgraph/heatgraph/solve"
+	"github.com/heatgraph/heatgraph/sparse"
 )
 
 // Transient is the network through time, as the integrator takes it:
@@ -156,6 +157,9 @@ func (net *Network) Run(o RunOptions) (*History, error) {
 	if o.CycleTolerance <= 0 {
 		o.CycleTolerance = 0.01
 	}
+	if o.Linear == nil {
+		o.Linear = linearSolver(len(net.unknown))
+	}
 	p := net.Transient()
 	x0, err := net.startState(p, o)
 	if err != nil {
@@ -253,6 +257,16 @@ func (net *Network) Run(o RunOptions) (*History, error) {
 		cyc.report(h.Cycle, net)
 	}
 	return h, nil
+}
+
+// linearSolver returns the linear solver of a run of n unknowns: the one
+// solve.Auto picks while the dense LU takes the problem, else the sparse
+// package's choice of a direct or an iterative solver.
+func linearSolver(n int) solve.LinearSolver {
+	if n <= solve.DenseLimit {
+		return solve.Auto(n)
+	}
+	return &sparse.AutoSolver{}
 }
 
 // onGrid reports whether t is a multiple of the interval.

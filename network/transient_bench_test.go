@@ -7,6 +7,7 @@ import (
 
 	"github.com/heatgraph/heatgraph/network"
 	"github.com/heatgraph/heatgraph/solve"
+	"github.com/heatgraph/heatgraph/sparse"
 )
 
 // gridModel is a plate discretised into side × side nodes, each with a
@@ -43,35 +44,39 @@ func gridModel(side int) string {
 }
 
 // BenchmarkRunGrid runs grids of 400, 4,900 and 10,000 nodes through 1,000
-// fixed steps with the linear solver solve.Auto picks. So far that is the
-// dense LU, which takes at most solve.DenseLimit (5,000) unknowns: the
-// 10,000-node grid is skipped until a sparse solver takes it, and 4,900
-// nodes is the largest run. Modified Newton keeps one factorization for
+// fixed steps, with the sparse package's solver (a direct or an iterative
+// one by the work it estimates) and, up to solve.DenseLimit (5,000)
+// unknowns, with the dense LU. Modified Newton keeps one factorization for
 // the whole run, so the time is that of one factorization and about 4,000
 // solves.
 //
 //	go test -run x -bench RunGrid -benchtime 1x ./network/
 func BenchmarkRunGrid(b *testing.B) {
 	for _, side := range []int{20, 70, 100} {
-		b.Run(fmt.Sprintf("nodes=%d/steps=1000", side*side), func(b *testing.B) {
-			net := buildModel(b, gridModel(side))
-			lin := solve.Auto(net.Unknowns())
-			if err := lin.Analyse(net.Steady().Pattern()); err != nil {
-				b.Skipf("%d unknowns: %v", net.Unknowns(), err)
-			}
-			b.ReportAllocs()
-			for b.Loop() {
-				h, err := net.Run(network.RunOptions{End: 1000, FixedStep: 1, Interval: 100, ModifiedNewton: true})
-				if err != nil {
-					b.Fatal(err)
+		net := buildModel(b, gridModel(side))
+		for _, lin := range []string{"sparse", "dense"} {
+			b.Run(fmt.Sprintf("nodes=%d/steps=1000/%s", side*side, lin), func(b *testing.B) {
+				if lin == "dense" && net.Unknowns() > solve.DenseLimit {
+					b.Skipf("%d unknowns: the dense LU takes at most %d", net.Unknowns(), solve.DenseLimit)
 				}
-				if !h.Completed() {
-					b.Fatal(h.Result.Reason, h.Result.Err)
+				b.ReportAllocs()
+				for b.Loop() {
+					var ls solve.LinearSolver = &sparse.AutoSolver{}
+					if lin == "dense" {
+						ls = solve.NewDenseLU()
+					}
+					h, err := net.Run(network.RunOptions{End: 1000, FixedStep: 1, Interval: 100, ModifiedNewton: true, Linear: ls})
+					if err != nil {
+						b.Fatal(err)
+					}
+					if !h.Completed() {
+						b.Fatal(h.Result.Reason, h.Result.Err)
+					}
+					if h.Result.Steps != 1000 {
+						b.Fatalf("%d steps", h.Result.Steps)
+					}
 				}
-				if h.Result.Steps != 1000 {
-					b.Fatalf("%d steps", h.Result.Steps)
-				}
-			}
-		})
+			})
+		}
 	}
 }

@@ -278,3 +278,26 @@ links:
 		}
 	}
 }
+
+// A network beyond the dense LU's limit runs with the sparse package's
+// solver, which Run picks by itself; its energy still balances.
+func TestRunBeyondDenseLimit(t *testing.T) {
+	net := assembleModel(t, "grid.yaml", gridModel(72))
+	if net.Unknowns() <= solve.DenseLimit {
+		t.Fatalf("%d unknowns, want more than %d", net.Unknowns(), solve.DenseLimit)
+	}
+	h, err := net.Run(network.RunOptions{End: 10, FixedStep: 1, ModifiedNewton: true})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !h.Completed() {
+		t.Fatalf("run ended: %v (%v)", h.Result.Reason, h.Result.Err)
+	}
+	// 2 W for the first second, 40 W for the next nine (the pulse).
+	if want := 2.0 + 9*40; math.Abs(h.Energy.Sources-want) > 1e-9*want {
+		t.Errorf("heat from sources %.9g J, want %g J", h.Energy.Sources, want)
+	}
+	if r := h.Energy.Relative(); r > 1e-8 {
+		t.Errorf("energy imbalance %.3g (relative)", r)
+	}
+}

@@ -501,6 +501,14 @@ func (it *integrator) finish(t float64) TransientResult {
 
 type linearError struct{ err error }
 
+// recoverable reports whether a linear solver's error may go away with a
+// shorter step: a singular stage matrix, or an iterative solver that did
+// not reach its tolerance (the matrix is better conditioned when the
+// capacities weigh more).
+func recoverable(err error) bool {
+	return errors.Is(err, ErrSingular) || errors.Is(err, sparse.ErrSingular) || errors.Is(err, sparse.ErrNotConverged)
+}
+
 func (e *linearError) Error() string { return e.err.Error() }
 
 // consistent makes x consistent at t with a backward-Euler step of length
@@ -519,10 +527,11 @@ func (it *integrator) consistent(t, eps float64) error {
 	// Newton's method alone fails where a massless unknown's equation has
 	// no slope at the start (natural convection at zero temperature
 	// difference): solve the same equations with Newton, whose line search
-	// and pseudo-transient steps are made for that (with a linear solver
-	// of its own).
+	// and pseudo-transient steps are made for that, with the run's linear
+	// solver (which Newton analyses again for the same pattern).
 	start := &startProblem{Transient: it.p, e0: it.e0, a: 1 / eps, e: make([]float64, it.n), m: it.p.Pattern()}
-	res := Newton(start, it.x, Settings{})
+	it.factored = false
+	res := Newton(start, it.x, Settings{Linear: it.lin})
 	if !res.Reason.Converged() {
 		if res.Err != nil {
 			return fmt.Errorf("the massless unknowns could not be put on their balances at the start (%s): %w", res.Reason, res.Err)
@@ -728,6 +737,9 @@ func (it *integrator) iterate(x []float64, t, a float64, ek, rhs []float64, fres
 			it.rhs[i] *= it.d[i]
 		}
 		if err := it.lin.Solve(it.dx, it.rhs); err != nil {
+			if recoverable(err) {
+				return k, err
+			}
 			return k, &linearError{err}
 		}
 		worst := 0.0
@@ -775,7 +787,7 @@ func (it *integrator) factorize(a float64) error {
 	it.res.Factorized++
 	it.factored = false
 	if err := it.lin.Factorize(it.a); err != nil {
-		if errors.Is(err, ErrSingular) {
+		if recoverable(err) {
 			return err
 		}
 		return &linearError{err}
