@@ -402,7 +402,7 @@ func (it *integrator) run() TransientResult {
 		hTry, landing := h, false
 		if t+hTry >= stop-1e-12*span {
 			hTry, landing = stop-t, true
-		} else if t+2*hTry > stop {
+		} else if s.FixedStep <= 0 && t+2*hTry > stop {
 			// Two even steps rather than a long one and a sliver.
 			hTry = (stop - t) / 2
 		}
