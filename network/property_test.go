@@ -267,6 +267,12 @@ func identity(n int) []int {
 // the reader refuses, or a solve that does not converge, fails the test
 // with the model text.
 func solveRandom(t *rapid.T, text string) *network.Solution {
+	return solveRandomWith(t, text, nil)
+}
+
+// solveRandomWith solves with the given linear solver (nil: the default
+// for the size).
+func solveRandomWith(t *rapid.T, text string, lin solve.LinearSolver) *network.Solution {
 	m, err := network.Parse("random.yaml", []byte(text))
 	if err != nil {
 		t.Fatalf("the generator wrote an invalid model: %v\n%s", err, text)
@@ -276,7 +282,7 @@ func solveRandom(t *rapid.T, text string) *network.Solution {
 		t.Fatalf("the generator wrote a model that does not assemble: %v\n%s", err, text)
 	}
 	p := net.Steady()
-	res := solve.Newton(p, p.InitialGuess(), solve.Settings{})
+	res := solve.Newton(p, p.InitialGuess(), solve.Settings{Linear: lin})
 	if !res.Reason.Converged() {
 		t.Fatalf("no convergence on a well-posed network: %v after %d iterations (residual %g W, scaled %g, step %g K; %v)\n%s",
 			res.Reason, res.Iterations, res.Residual, res.Scaled, res.Step, res.Err, text)
@@ -391,6 +397,22 @@ func TestPropertyRenumbering(t *testing.T) {
 		for _, l := range b.Links {
 			if x := qa[l.ID]; !(math.Abs(x-l.Heat) <= 1e-9*qmax+1e-12) {
 				t.Fatalf("link %s: %.12g W as drawn, %.12g W renumbered\n%s", l.ID, x, l.Heat, shuffled)
+			}
+		}
+	})
+}
+
+// The dense and the sparse linear solvers give the same answers: the
+// solution does not depend on how the Newton systems are solved.
+func TestPropertyLinearSolversAgree(t *testing.T) {
+	rapid.Check(t, func(t *rapid.T) {
+		rn := drawNet(t)
+		text := rn.yaml(nil, nil)
+		dense := temperatures(solveRandomWith(t, text, solve.NewDenseLU()))
+		sparse := temperatures(solveRandomWith(t, text, &solve.SparseAuto{}))
+		for id, want := range dense {
+			if got := sparse[id]; math.Abs(got-want) > 1e-9*want {
+				t.Fatalf("node %s: sparse %.12g K, dense %.12g K\n%s", id, got, want, text)
 			}
 		}
 	})

@@ -8,7 +8,6 @@ import (
 
 	"github.com/heatgraph/heatgraph/elements"
 	"github.com/heatgraph/heatgraph/solve"
-	"github.com/heatgraph/heatgraph/sparse"
 )
 
 // Transient is the network through time, as the integrator takes it:
@@ -51,7 +50,8 @@ type RunOptions struct {
 	// FixedStep, RelTol, AbsTol, FirstStep: see solve.TransientSettings
 	// (AbsTol in K for temperatures).
 	FixedStep, RelTol, AbsTol, FirstStep float64
-	// Linear solves the stage systems; default solve.Auto.
+	// Linear solves the stage systems; default solve.Auto (the dense LU
+	// for small networks, the sparse family for large ones).
 	Linear solve.LinearSolver
 	// ModifiedNewton keeps the stage matrix's factorization while it
 	// serves (see solve.TransientSettings).
@@ -157,9 +157,6 @@ func (net *Network) Run(o RunOptions) (*History, error) {
 	if o.CycleTolerance <= 0 {
 		o.CycleTolerance = 0.01
 	}
-	if o.Linear == nil {
-		o.Linear = linearSolver(len(net.unknown))
-	}
 	p := net.Transient()
 	x0, err := net.startState(p, o)
 	if err != nil {
@@ -257,16 +254,6 @@ func (net *Network) Run(o RunOptions) (*History, error) {
 		cyc.report(h.Cycle, net)
 	}
 	return h, nil
-}
-
-// linearSolver returns the linear solver of a run of n unknowns: the one
-// solve.Auto picks while the dense LU takes the problem, else the sparse
-// package's choice of a direct or an iterative solver.
-func linearSolver(n int) solve.LinearSolver {
-	if n <= solve.DenseLimit {
-		return solve.Auto(n)
-	}
-	return &sparse.AutoSolver{}
 }
 
 // onGrid reports whether t is a multiple of the interval.

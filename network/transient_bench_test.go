@@ -7,7 +7,6 @@ import (
 
 	"github.com/heatgraph/heatgraph/network"
 	"github.com/heatgraph/heatgraph/solve"
-	"github.com/heatgraph/heatgraph/sparse"
 )
 
 // gridModel is a plate discretised into side × side nodes, each with a
@@ -44,9 +43,9 @@ func gridModel(side int) string {
 }
 
 // BenchmarkRunGrid runs grids of 400, 4,900 and 10,000 nodes through 1,000
-// fixed steps, with the sparse package's solver (a direct or an iterative
-// one by the work it estimates) and, up to solve.DenseLimit (5,000)
-// unknowns, with the dense LU. Modified Newton keeps one factorization for
+// fixed steps, with the solver solve.Auto picks (the sparse family at these
+// sizes: a direct or an iterative solver by the work it estimates) and, up
+// to solve.DenseLimit (5,000) unknowns, with the dense LU. Modified Newton keeps one factorization for
 // the whole run, so the time is that of one factorization and about 4,000
 // solves.
 //
@@ -54,14 +53,14 @@ func gridModel(side int) string {
 func BenchmarkRunGrid(b *testing.B) {
 	for _, side := range []int{20, 70, 100} {
 		net := buildModel(b, gridModel(side))
-		for _, lin := range []string{"sparse", "dense"} {
+		for _, lin := range []string{"auto", "dense"} {
 			b.Run(fmt.Sprintf("nodes=%d/steps=1000/%s", side*side, lin), func(b *testing.B) {
 				if lin == "dense" && net.Unknowns() > solve.DenseLimit {
 					b.Skipf("%d unknowns: the dense LU takes at most %d", net.Unknowns(), solve.DenseLimit)
 				}
 				b.ReportAllocs()
 				for b.Loop() {
-					var ls solve.LinearSolver = &sparse.AutoSolver{}
+					ls := solve.Auto(net.Unknowns())
 					if lin == "dense" {
 						ls = solve.NewDenseLU()
 					}

@@ -279,8 +279,8 @@ links:
 	}
 }
 
-// A network beyond the dense LU's limit runs with the sparse package's
-// solver, which Run picks by itself; its energy still balances.
+// A network beyond the dense LU's limit runs with the sparse solver that
+// solve.Auto picks for it; its energy still balances.
 func TestRunBeyondDenseLimit(t *testing.T) {
 	net := assembleModel(t, "grid.yaml", gridModel(72))
 	if net.Unknowns() <= solve.DenseLimit {

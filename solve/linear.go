@@ -9,8 +9,9 @@ import (
 )
 
 // ErrSingular is returned by a LinearSolver whose matrix is singular or too
-// ill-conditioned to solve.
-var ErrSingular = errors.New("matrix is singular to working precision")
+// ill-conditioned to solve. It is the sparse package's, so that every
+// solver reports singularity the same way.
+var ErrSingular = sparse.ErrSingular
 
 // LinearSolver solves A·x = b for the Newton step, in three phases, so that
 // work that depends only on the sparsity pattern is done once per problem:
@@ -35,9 +36,54 @@ const DenseLimit = 5000
 // ErrTooLarge is returned when a problem is too large for a solver.
 var ErrTooLarge = errors.New("problem too large for the linear solver")
 
-// Auto returns the linear solver for a problem of n unknowns.
+// DenseBelow is the size under which Auto picks the dense LU: below it the
+// dense factorization is as fast as the sparse one and its condition
+// estimate judges singularity most reliably.
+const DenseBelow = 200
+
+// Auto returns the linear solver for a problem of n unknowns: the dense LU
+// below DenseBelow unknowns, else the sparse family's own choice (sparse
+// Cholesky or LU with a fill-reducing ordering, or a preconditioned
+// iterative solver for large three-dimensional meshes; see sparse.Auto).
 func Auto(n int) LinearSolver {
-	return NewDenseLU()
+	if n < DenseBelow {
+		return NewDenseLU()
+	}
+	return &SparseAuto{}
+}
+
+// SparseAuto is the sparse family behind the LinearSolver interface: its
+// Analyse orders and analyses the pattern once, and sparse.Auto chooses a
+// direct or an iterative solver by the work the ordering predicts.
+type SparseAuto struct {
+	s *sparse.AutoSolver
+}
+
+// Analyse orders the pattern and chooses the solver.
+func (a *SparseAuto) Analyse(m *sparse.Matrix) error {
+	a.s = sparse.Auto(m)
+	return nil
+}
+
+// Factorize factorizes m's values (or sets up the preconditioner).
+func (a *SparseAuto) Factorize(m *sparse.Matrix) error {
+	if a.s == nil {
+		if err := a.Analyse(m); err != nil {
+			return err
+		}
+	}
+	return a.s.Factorize(m)
+}
+
+// Solve solves with the last factorization.
+func (a *SparseAuto) Solve(x, b []float64) error { return a.s.Solve(x, b) }
+
+// Chosen names the solver the sparse family chose, for reports.
+func (a *SparseAuto) Chosen() string {
+	if a.s == nil {
+		return "sparse (not analysed)"
+	}
+	return a.s.Kind()
 }
 
 // DenseLU solves with a dense LU factorization with partial pivoting

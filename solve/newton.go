@@ -441,7 +441,7 @@ func (w *work) direction(x []float64) (bool, error) {
 		}
 		return false, nil
 	}
-	if !errors.Is(err, ErrSingular) {
+	if !singular(err) {
 		return false, err
 	}
 	return true, w.pseudoStep(x)
@@ -532,7 +532,7 @@ func (w *work) pseudoStep(x []float64) error {
 			}
 			return nil
 		}
-		if !errors.Is(err, ErrSingular) {
+		if !singular(err) {
 			return err
 		}
 	}
@@ -640,8 +640,15 @@ func floating(j *sparse.Matrix) []int {
 	return out
 }
 
+// singular reports whether a linear solver's error means the matrix could
+// not be solved as it is: singular, or an iterative solver that could not
+// reach its tolerance (a shifted matrix is better conditioned).
+func singular(err error) bool {
+	return errors.Is(err, ErrSingular) || errors.Is(err, sparse.ErrNotConverged)
+}
+
 func classify(err error) (StopReason, error) {
-	if errors.Is(err, ErrSingular) {
+	if singular(err) {
 		return SingularJacobian, err
 	}
 	return LinearSolverFailed, err

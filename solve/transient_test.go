@@ -445,7 +445,7 @@ func TestRunReasons(t *testing.T) {
 	}
 	// Too large for the dense LU.
 	big := &linearRC{c: make([]float64, DenseLimit+1), k: nil}
-	if r := TRBDF2(&sizeOnly{big}, make([]float64, DenseLimit+1), TransientSettings{End: 1}); r.Reason != LinearFailed || !errors.Is(r.Err, ErrTooLarge) {
+	if r := TRBDF2(&sizeOnly{big}, make([]float64, DenseLimit+1), TransientSettings{End: 1, Linear: NewDenseLU()}); r.Reason != LinearFailed || !errors.Is(r.Err, ErrTooLarge) {
 		t.Errorf("too large: %v (%v)", r.Reason, r.Err)
 	}
 	for r := Completed; r <= Interrupted; r++ {
