@@ -24,6 +24,10 @@ type Node struct {
 	Pressure    float64 // Pa above ambient, of a fixed node in an air path
 	Note        string
 	Line        int
+	// PowerProfile and TemperatureProfile, when not nil, give the heat
+	// input or the fixed temperature during a run (Power and Temperature
+	// are their values at t = 0).
+	PowerProfile, TemperatureProfile Profile
 }
 
 // Fixed reports whether the node's temperature is given.
@@ -63,6 +67,10 @@ type Network struct {
 	free    []int              // variable -> unknown index, -1 for given variables
 	unknown []int              // unknown index -> variable
 	asm     *assembly
+	// given holds the given variables that follow a profile in time, and
+	// profiles every profile of the network (for the jumps of a run).
+	given    []givenProfile
+	profiles []Profile
 }
 
 // Load reads, checks and assembles a model file. Any problem in the file,
@@ -98,20 +106,30 @@ func Build(m *Model) (*Network, error) {
 			v.Value = n.Temperature
 		}
 		net.addVar(v)
-		if n.Power != 0 {
-			net.sources = append(net.sources, &elements.HeatInput{Node: i, Q: n.Power})
+		if n.Power != 0 || n.PowerProfile != nil {
+			h := &elements.HeatInput{Node: i, Q: n.Power}
+			if n.PowerProfile != nil {
+				h.Of = n.PowerProfile
+				net.profiles = append(net.profiles, n.PowerProfile)
+			}
+			net.sources = append(net.sources, h)
+		}
+		if n.Fixed() && n.TemperatureProfile != nil {
+			net.given = append(net.given, givenProfile{v: i, p: n.TemperatureProfile})
+			net.profiles = append(net.profiles, n.TemperatureProfile)
 		}
 		if n.Capacity > 0 {
 			net.stores = append(net.stores, &elements.Capacity{Node: i, C: n.Capacity})
 		}
 		return i
 	}
-	add(Node{ID: AmbientID, Kind: Fixed, Temperature: m.Ambient.Temperature, Line: m.Ambient.Line, Note: "ambient air and surroundings"})
+	add(Node{ID: AmbientID, Kind: Fixed, Temperature: m.Ambient.Temperature, Line: m.Ambient.Line, Note: "ambient air and surroundings", TemperatureProfile: m.Ambient.TemperatureProfile})
 	for _, s := range m.Nodes {
-		add(Node{ID: s.ID, Kind: s.Kind, Temperature: s.Temperature, Power: s.Power, Capacity: s.Capacity, Limit: s.Limit, HasLimit: s.HasLimit, Height: s.Height, Pressure: s.Pressure, Note: s.Note, Line: s.Line})
+		add(Node{ID: s.ID, Kind: s.Kind, Temperature: s.Temperature, Power: s.Power, Capacity: s.Capacity, Limit: s.Limit, HasLimit: s.HasLimit, Height: s.Height, Pressure: s.Pressure, Note: s.Note, Line: s.Line,
+			PowerProfile: s.PowerProfile, TemperatureProfile: s.TemperatureProfile})
 	}
 	for _, c := range m.Components {
-		j := add(Node{ID: c.ID, Kind: Junction, Power: c.Power, Capacity: c.Capacity, Limit: c.Limit, HasLimit: c.HasLimit, Note: c.Note, Line: c.Line})
+		j := add(Node{ID: c.ID, Kind: Junction, Power: c.Power, Capacity: c.Capacity, Limit: c.Limit, HasLimit: c.HasLimit, Note: c.Note, Line: c.Line, PowerProfile: c.PowerProfile})
 		legs := []struct {
 			kind, end, suffix string
 			r                 float64

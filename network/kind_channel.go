@@ -35,8 +35,8 @@ func init() {
 			"   fin_count: 14, fin_thickness: 1.2 mm, fin_height: 30 mm, base_width: 80 mm, material: aluminium-6063}",
 		keys: []keySpec{
 			{name: "inlet", what: "node", need: "required", help: "the air or fixed node the air comes from"},
-			{name: "flow", dim: units.VolumeFlow, need: "one of flow, mass_flow", help: "volume flow of ambient air, or solved: the flow the air path's fans and losses give"},
-			{name: "mass_flow", dim: units.MassFlow, need: "one of flow, mass_flow"},
+			{name: "flow", dim: units.VolumeFlow, need: "one of flow, mass_flow", help: "volume flow of ambient air, constant or a profile in time; or solved: the flow the air path's fans and losses give"},
+			{name: "mass_flow", dim: units.MassFlow, need: "one of flow, mass_flow", help: "constant or a profile in time"},
 			{name: "length", dim: units.Length, need: "required", help: "channel length along the flow"},
 			{name: "fin_count", what: "count", need: "for a heat sink", help: "number of fins (2 to 1000)"},
 			{name: "fin_thickness", dim: units.Length, need: "with fin_count"},
@@ -67,7 +67,8 @@ func init() {
 // Channel is forced convection in channels; the link runs from the wall to
 // the outlet air node, with the inlet as a third node.
 type Channel struct {
-	MassFlow float64 // kg/s
+	MassFlow float64 // kg/s (at t = 0)
+	Profile  Profile // the mass flow in time, nil when constant
 	Solved   bool    // flow: solved: the flow is an unknown, with the channels' drop as its law (airflow.go)
 	Geometry elements.ChannelGeometry
 	Options  duct.Options
@@ -76,13 +77,15 @@ type Channel struct {
 	Downstream float64
 }
 
+func (c *Channel) flowProfile() Profile { return c.Profile }
+
 func (c *Channel) air(l *LinkSpec) (string, string, float64) { return l.Others[0], l.To, c.MassFlow }
 
 func (c *Channel) element(e linkEnv) (elements.Element, error) {
 	if c.Solved {
 		return c.solvedElement(e)
 	}
-	f := e.givenFlow(c.MassFlow)
+	f := e.givenFlowProfile(c.MassFlow, c.Profile)
 	el := &elements.Channel{Wall: e.from, Inlet: e.others[0], Outlet: e.to, Flow: f,
 		Geometry: c.Geometry, Options: c.Options, Upstream: c.Upstream, Downstream: c.Downstream}
 	// A given flow between nodes of a solved air path adds its mass to
@@ -115,7 +118,7 @@ func parseChannel(o *object, m *Model) LinkParams {
 	if c.Solved = solvedFlow(o); c.Solved {
 		ok = true
 	} else {
-		c.MassFlow, ok = massFlow(o, m)
+		c.MassFlow, c.Profile, ok = massFlowProfile(o, m)
 	}
 	length, okL := o.positive("length", units.Length, true)
 	ok = ok && okL

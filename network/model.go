@@ -21,6 +21,9 @@ type Ambient struct {
 	Altitude    float64 // m above sea level, when given (else 0)
 	FromAlt     bool    // the pressure was derived from Altitude
 	Line        int
+	// TemperatureProfile, when not nil, gives the temperature during a
+	// run; Temperature is its value at t = 0.
+	TemperatureProfile Profile
 }
 
 // AmbientID is the name of the node that stands for the ambient; every model
@@ -57,6 +60,10 @@ type NodeSpec struct {
 	Pressure    float64 // gauge pressure above ambient where air leaves or enters, Pa (Fixed only)
 	Note        string
 	Line        int
+	// PowerProfile and TemperatureProfile, when not nil, give the power or
+	// the fixed temperature during a run; Power and Temperature are their
+	// values at t = 0.
+	PowerProfile, TemperatureProfile Profile
 }
 
 // ComponentSpec is a part described by the JEDEC two-resistor compact model
@@ -74,6 +81,9 @@ type ComponentSpec struct {
 	HasLimit bool
 	Note     string
 	Line     int
+	// PowerProfile, when not nil, gives the power during a run; Power is
+	// its value at t = 0.
+	PowerProfile Profile
 }
 
 // LinkSpec is one entry of the links list.

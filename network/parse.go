@@ -85,6 +85,9 @@ func Parse(file string, data []byte) (*Model, error) {
 		r.problems = append(r.problems, m.isolated()...)
 		r.problems = append(r.problems, m.unbalancedAir()...)
 		r.problems = append(r.problems, m.closedAir()...)
+		if len(r.problems) == 0 {
+			r.problems = append(r.problems, m.unbalancedAirInTime()...)
+		}
 	}
 	if len(r.problems) > 0 {
 		return nil, r.finish()
@@ -106,8 +109,8 @@ func (r *reader) readAmbient(top *object, m *Model) {
 	}
 	o.checkKeys(ambientKeys, "ambient")
 	m.Ambient.Line = n.Line
-	if t, ok := o.temperature("temperature", true); ok {
-		m.Ambient.Temperature = t
+	if t, prof, ok := o.varying("temperature", units.Temperature, true); ok {
+		m.Ambient.Temperature, m.Ambient.TemperatureProfile = t, prof
 	}
 	m.Ambient.Pressure = air.SeaLevelP
 	if o.has("pressure") && o.has("altitude") {
@@ -187,7 +190,7 @@ func (r *reader) readNodes(n *yaml.Node, m *Model, ids map[string]nodeRef) []Nod
 		switch spec.Kind {
 		case Solid:
 			o.checkKeys(append(solidKeys, capacityKeys...), "a solid node")
-			spec.Power, _ = o.power("power", false)
+			spec.Power, spec.PowerProfile, _ = o.varying("power", units.Power, false)
 			spec.Limit, spec.HasLimit = o.temperature("limit", false)
 			spec.Capacity = readCapacity(o, m)
 		case Air:
@@ -208,7 +211,7 @@ func (r *reader) readNodes(n *yaml.Node, m *Model, ids map[string]nodeRef) []Nod
 				r.addf(o.values["limit"], o.field("limit"), "a fixed-temperature node has no limit to check (its temperature is given)")
 			}
 			o.checkKeys(append(fixedKeys, "power", "limit"), "a fixed node")
-			spec.Temperature, _ = o.temperature("temperature", true)
+			spec.Temperature, spec.TemperatureProfile, _ = o.varying("temperature", units.Temperature, true)
 			if o.has("pressure") {
 				spec.Pressure, _ = o.quantity("pressure", units.Pressure)
 				// A gauge pressure: a box's fans and vents work with pascals
@@ -243,7 +246,7 @@ func (r *reader) readComponents(n *yaml.Node, m *Model, ids map[string]nodeRef) 
 		}
 		c.ID = id
 		c.Note, _ = o.str("note")
-		c.Power, _ = o.power("power", true)
+		c.Power, c.PowerProfile, _ = o.varying("power", units.Power, true)
 		c.Limit, c.HasLimit = o.temperature("limit", false)
 		c.Capacity = readCapacity(o, m)
 		c.Case, _ = o.str("case")

@@ -62,9 +62,12 @@ type BoundaryHeat struct {
 
 // Balance is the energy balance of a solution: what goes in must come out.
 type Balance struct {
-	In        float64        // total heat input, W
-	Out       []BoundaryHeat // per fixed node, in node order
-	Imbalance float64        // In − ΣOut, W; round-off at a converged solution
+	In float64 // total heat input of sources (nodes' and components' power), W
+	// Environment is the heat brought in from the environment (the sun on
+	// outside surfaces), W: heat in, but not any part's dissipation.
+	Environment float64
+	Out         []BoundaryHeat // per fixed node, in node order
+	Imbalance   float64        // In + Environment − ΣOut, W; round-off at a converged solution
 	// Mass is the mass balance of every node that air flows through, and
 	// the air entering or leaving through each fixed node, in node order.
 	Mass []MassBalance
@@ -156,6 +159,11 @@ func (net *Network) Solution(x []float64) *Solution {
 			sol.Balance.In += src.Power(state)
 		}
 	}
+	for _, l := range net.Links {
+		if src, ok := l.Element.(elements.EnvironmentSource); ok {
+			sol.Balance.Environment += src.EnvironmentHeat(state)
+		}
+	}
 	out := 0.0
 	for i, n := range net.Nodes {
 		if n.Fixed() {
@@ -164,7 +172,7 @@ func (net *Network) Solution(x []float64) *Solution {
 			out += p.sum[i]
 		}
 	}
-	sol.Balance.Imbalance = sol.Balance.In - out
+	sol.Balance.Imbalance = sol.Balance.In + sol.Balance.Environment - out
 	sol.Branches, sol.Balance.Mass = net.airflowResults(state)
 	return sol
 }
@@ -199,7 +207,7 @@ func (s *Solution) Exceeded() []NodeResult {
 // MaxImbalance returns the tolerance the energy balance is held to: a
 // converged solution's imbalance is round-off of the heat moving through it.
 func (b Balance) MaxImbalance() float64 {
-	scale := math.Abs(b.In)
+	scale := math.Abs(b.In) + math.Abs(b.Environment)
 	for _, o := range b.Out {
 		scale = math.Max(scale, math.Abs(o.Heat))
 	}

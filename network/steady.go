@@ -69,8 +69,12 @@ func (p *Steady) Pattern() *sparse.Matrix { return p.net.asm.pattern.Clone() }
 // Deprecated: use Pattern.
 func (p *Steady) Jacobian() *sparse.Matrix { return p.Pattern() }
 
-// SetTime sets the time the elements see, s.
-func (p *Steady) SetTime(t float64) { p.state.Time = t }
+// SetTime sets the time the elements see, s, and the given variables that
+// follow a profile (fixed and ambient temperatures) to their values then.
+func (p *Steady) SetTime(t float64) {
+	p.state.Time = t
+	p.net.setGiven(p.x, t)
+}
 
 // InitialGuess returns a starting state: every free node at the ambient
 // temperature, every other unknown at its starting value.

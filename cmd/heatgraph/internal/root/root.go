@@ -10,6 +10,7 @@ import (
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/checkcmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/graphcmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/historycmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/kindscmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/materialscmd"
@@ -48,6 +49,7 @@ codes, product-safety standards and licensed engineering practice.`,
 		graphcmd.NewCmd(ios, nil),
 		materialscmd.NewCmd(ios),
 		kindscmd.NewCmd(ios),
+		historycmd.NewCmd(ios, nil),
 	)
 	for _, sub := range cmd.Commands() {
 		classify(sub)
