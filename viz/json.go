@@ -110,9 +110,12 @@ type DetailReport struct {
 
 // BalanceReport is the energy balance.
 type BalanceReport struct {
-	InW        Number           `json:"heat_in_W"`
-	Out        []BoundaryReport `json:"heat_out"`
-	ImbalanceW Number           `json:"imbalance_W"`
+	InW Number `json:"heat_in_W"`
+	// EnvironmentW is the heat brought in from the environment (the sun),
+	// apart from the parts' heat inputs.
+	EnvironmentW Number           `json:"environment_heat_W"`
+	Out          []BoundaryReport `json:"heat_out"`
+	ImbalanceW   Number           `json:"imbalance_W"`
 }
 
 // BoundaryReport is the heat leaving through one fixed node.
@@ -175,7 +178,7 @@ func NewReport(m *network.Model, sol *network.Solution, run Run) *Report {
 		}
 		r.Links = append(r.Links, lr)
 	}
-	b := &BalanceReport{InW: Number(sol.Balance.In), ImbalanceW: Number(sol.Balance.Imbalance)}
+	b := &BalanceReport{InW: Number(sol.Balance.In), EnvironmentW: Number(sol.Balance.Environment), ImbalanceW: Number(sol.Balance.Imbalance)}
 	for _, o := range sol.Balance.Out {
 		b.Out = append(b.Out, BoundaryReport{Node: o.Node, HeatW: Number(o.Heat)})
 	}

@@ -91,6 +91,9 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 	b := sol.Balance
 	tw.printf("\nenergy balance [W]\n")
 	tw.printf("  heat in                %12s\n", fnum("%.4f", b.In))
+	if b.Environment != 0 {
+		tw.printf("  from the environment   %12s\n", fnum("%.4f", b.Environment))
+	}
 	for _, o := range b.Out {
 		if o.Heat != 0 {
 			tw.printf("  out through %-10s %12s\n", o.Node, fnum("%.4f", o.Heat))
