@@ -166,6 +166,8 @@ func (c *Channel) eval(s *State, seed int) (cs channelState, tm dual.Num) {
 	re := p.Mu.Inv().Mul(m).Scale(g.Duct.Dh() / g.FlowArea())
 	opts := c.Options
 	opts.Heating = s.X[c.Wall] > tm.V
+	// Stamping needs Nu alone; reports (seedNone) need the rest too.
+	opts.HeatOnly = seed != seedNone
 	res := c.segmentFlow(re, p.Pr, opts)
 	h := res.Nu.Mul(p.K).Scale(1 / g.Duct.Dh())
 	aEff := dual.C(g.PrimeArea)

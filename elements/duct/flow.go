@@ -96,6 +96,13 @@ type Options struct {
 	Developed bool
 	Heating   bool // fluid heated by the wall: Dittus–Boelter exponent 0.4, else 0.3
 	ShortDuct bool // multiply the turbulent Nu by ShortDuctFactor(L/Dh)
+	// HeatOnly asks for the Nusselt numbers alone: no friction factors,
+	// names or warnings (they cost more than Nu itself), for elements that
+	// stamp heat at every Newton iteration and report the rest once.
+	HeatOnly bool
+	// wantDeveloped asks for NuDeveloped even with HeatOnly (Segment's
+	// bound needs it).
+	wantDeveloped bool
 }
 
 // Result is the mean heat transfer and friction of a duct.
@@ -200,8 +207,10 @@ func Flow(d Duct, re, pr dual.Num, o Options) Result {
 	dev := o
 	dev.Developed = true
 	var r Result
-	r.F, r.FrictionCorrelation = friction(d, re, o.Developed)
-	r.FDeveloped, _ = friction(d, re, true)
+	if !o.HeatOnly {
+		r.F, r.FrictionCorrelation = friction(d, re, o.Developed)
+		r.FDeveloped, _ = friction(d, re, true)
+	}
 	switch {
 	case re.V <= ReLaminar:
 		r.Regime = RegimeLaminar
@@ -210,7 +219,9 @@ func Flow(d Duct, re, pr dual.Num, o Options) Result {
 		r.EntryHydro = 0.05 * re.V * dh
 		r.EntryThermal = 0.05 * re.V * pr.V * dh
 		r.Developing = !o.Developed && d.Length < r.EntryThermal
-		r.Warnings = laminarWarnings(d, pr.V, o)
+		if !o.HeatOnly {
+			r.Warnings = laminarWarnings(d, pr.V, o)
+		}
 	case re.V < ReTurbulent:
 		r.Regime = RegimeTransitional
 		r.EntryHydro, r.EntryThermal = 10*dh, 10*dh
@@ -227,23 +238,37 @@ func Flow(d Duct, re, pr dual.Num, o Options) Result {
 		}
 		if re.V >= high {
 			r.Nu, r.Correlation = turbulentNu(d, re, pr, o)
-			r.Correlation += fmt.Sprintf(corrFromRe, high)
-			r.NuDeveloped, _ = turbulentNu(d, re, pr, dev)
-			r.Warnings = turbulentWarnings(d, re.V, pr.V, o)
+			if o.needDeveloped() {
+				r.NuDeveloped, _ = turbulentNu(d, re, pr, dev)
+			}
+			if !o.HeatOnly {
+				r.Correlation += fmt.Sprintf(corrFromRe, high)
+				r.Warnings = turbulentWarnings(d, re.V, pr.V, o)
+			}
 		} else {
 			r.Nu, r.Correlation = transitionNu(d, re, pr, o, high)
-			r.NuDeveloped, _ = transitionNu(d, re, pr, dev, high)
-			r.Warnings = append(laminarWarnings(d, pr.V, o), turbulentWarnings(d, high, pr.V, o)...)
+			if o.needDeveloped() {
+				r.NuDeveloped, _ = transitionNu(d, re, pr, dev, high)
+			}
+			if !o.HeatOnly {
+				r.Warnings = append(laminarWarnings(d, pr.V, o), turbulentWarnings(d, high, pr.V, o)...)
+			}
 		}
-		r.Warnings = append(r.Warnings, TransitionWarning)
+		if !o.HeatOnly {
+			r.Warnings = append(r.Warnings, TransitionWarning)
+		}
 	default:
 		r.Regime = RegimeTurbulent
 		r.Nu, r.Correlation = turbulentNu(d, re, pr, o)
-		r.NuDeveloped, _ = turbulentNu(d, re, pr, dev)
+		if o.needDeveloped() {
+			r.NuDeveloped, _ = turbulentNu(d, re, pr, dev)
+		}
 		r.EntryHydro, r.EntryThermal = 10*dh, 10*dh
-		r.Warnings = turbulentWarnings(d, re.V, pr.V, o)
+		if !o.HeatOnly {
+			r.Warnings = turbulentWarnings(d, re.V, pr.V, o)
+		}
 	}
-	if d.Shape == ParallelPlates {
+	if d.Shape == ParallelPlates && !o.HeatOnly {
 		w := warnings(r.Warnings)
 		w.check(PlatesAspect, d.Gap/d.Width)
 		r.Warnings = w
@@ -372,3 +397,6 @@ func (w *warnings) check(r validity.Range, v float64) {
 		*w = append(*w, msg)
 	}
 }
+
+// needDeveloped reports whether Flow must compute NuDeveloped.
+func (o Options) needDeveloped() bool { return !o.HeatOnly || o.wantDeveloped }

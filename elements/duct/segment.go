@@ -22,6 +22,7 @@ func Segment(d Duct, upstream float64, re, pr dual.Num, o Options) Result {
 		return Flow(d, re, pr, o)
 	}
 	l, x0 := d.Length, upstream
+	o.wantDeveloped = true
 	d.Length = x0 + l
 	whole := Flow(d, re, pr, o)
 	d.Length = x0
