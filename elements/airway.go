@@ -46,6 +46,21 @@ type FlowLaw interface {
 	Rise(m, tFrom, tTo dual.Num, p float64) dual.Num
 }
 
+// TimedLaw is implemented by laws that change in time (a fan whose speed
+// follows a profile): RiseAt is Rise at t seconds from the start of a run.
+// An airway calls it with the state's time.
+type TimedLaw interface {
+	RiseAt(t float64, m, tFrom, tTo dual.Num, p float64) dual.Num
+}
+
+// riseAt is law's rise at time t.
+func riseAt(law FlowLaw, t float64, m, tFrom, tTo dual.Num, p float64) dual.Num {
+	if tl, ok := law.(TimedLaw); ok {
+		return tl.RiseAt(t, m, tFrom, tTo, p)
+	}
+	return law.Rise(m, tFrom, tTo, p)
+}
+
 // LawReporter is implemented by laws with more to say at a solution (a
 // fan's operating point and warnings).
 type LawReporter interface {
@@ -158,21 +173,21 @@ func (w *Airway) Eval(s *State, l *Local) {
 	}
 	tf, tt := s.X[w.From], s.X[w.To]
 	p := s.Env.Pressure
-	rise := w.Law.Rise(dual.C(m), dual.C(tf), dual.C(tt), p)
+	rise := riseAt(w.Law, s.Time, dual.C(m), dual.C(tf), dual.C(tt), p)
 	b := w.buoyancy(dual.C(tf), dual.C(tt), s.Env)
 	l.Add(w.rMom, s.X[w.PFrom]-s.X[w.PTo]+b.V+rise.V)
 	if !l.WantsJacobian() {
 		return
 	}
 	r := w.rMom
-	l.D(r, 0, w.Law.Rise(dual.Var(m), dual.C(tf), dual.C(tt), p).D)
+	l.D(r, 0, riseAt(w.Law, s.Time, dual.Var(m), dual.C(tf), dual.C(tt), p).D)
 	l.D(r, 1, 1)
 	l.D(r, 2, -1)
 	if l.Needs(3) {
-		l.D(r, 3, w.Law.Rise(dual.C(m), dual.Var(tf), dual.C(tt), p).D+w.buoyancy(dual.Var(tf), dual.C(tt), s.Env).D)
+		l.D(r, 3, riseAt(w.Law, s.Time, dual.C(m), dual.Var(tf), dual.C(tt), p).D+w.buoyancy(dual.Var(tf), dual.C(tt), s.Env).D)
 	}
 	if l.Needs(4) {
-		l.D(r, 4, w.Law.Rise(dual.C(m), dual.C(tf), dual.Var(tt), p).D+w.buoyancy(dual.C(tf), dual.Var(tt), s.Env).D)
+		l.D(r, 4, riseAt(w.Law, s.Time, dual.C(m), dual.C(tf), dual.Var(tt), p).D+w.buoyancy(dual.C(tf), dual.Var(tt), s.Env).D)
 	}
 }
 
@@ -184,7 +199,7 @@ func (w *Airway) Operating(s *State) (m, q, rise, stack, rho float64) {
 	tf, tt := dual.C(s.X[w.From]), dual.C(s.X[w.To])
 	rho = MeanDensity(tf, tt, s.Env.Pressure).V
 	if w.Law != nil {
-		rise = w.Law.Rise(dual.C(m), tf, tt, s.Env.Pressure).V
+		rise = riseAt(w.Law, s.Time, dual.C(m), tf, tt, s.Env.Pressure).V
 		stack = w.buoyancy(tf, tt, s.Env).V
 	}
 	return m, m / rho, rise, stack, rho

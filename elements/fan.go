@@ -28,9 +28,12 @@ import (
 //
 // A stopped fan (Stopped) is a loss: StoppedLoss on the fan's face.
 type Fan struct {
-	Curve                 MonotoneCurve // Q (m³/s) → static pressure (Pa), at CurveSpeed and CurveDensity
-	CurveSpeed, Speed     float64       // rpm; the ratio is 1 when either is 0
-	CurveDensity          float64       // kg/m³
+	Curve             MonotoneCurve // Q (m³/s) → static pressure (Pa), at CurveSpeed and CurveDensity
+	CurveSpeed, Speed float64       // rpm; the ratio is 1 when either is 0
+	// SpeedAt, when set, gives the speed (rpm) at t seconds from the
+	// start of a run, in place of Speed: a speed profile.
+	SpeedAt               func(t float64) float64
+	CurveDensity          float64 // kg/m³
 	Stopped               bool
 	StoppedLoss           *Loss
 	ShutoffFraction       float64 // below this fraction of free delivery, warn of shut-off; 0.1 by default
@@ -78,9 +81,20 @@ func NewFan(f Fan) (*Fan, error) {
 }
 
 // ratio returns N/N₀.
-func (f *Fan) ratio() float64 {
-	if f.Speed > 0 && f.CurveSpeed > 0 {
-		return f.Speed / f.CurveSpeed
+func (f *Fan) ratio() float64 { return f.ratioAt(0) }
+
+// ratioAt returns N/N₀ at t seconds from the start of a run: the speed
+// follows SpeedAt when it is set.
+func (f *Fan) ratioAt(t float64) float64 {
+	speed := f.Speed
+	if f.SpeedAt != nil {
+		speed = f.SpeedAt(t)
+	}
+	if speed > 0 && f.CurveSpeed > 0 {
+		return speed / f.CurveSpeed
+	}
+	if f.SpeedAt != nil && f.CurveSpeed > 0 {
+		return 0
 	}
 	return 1
 }
@@ -102,10 +116,23 @@ func (f *Fan) curveAt(q dual.Num) dual.Num {
 // Rise returns the fan's static pressure rise at mass flow m, by the fan
 // laws from the curve, with the inlet density at tFrom.
 func (f *Fan) Rise(m, tFrom, tTo dual.Num, p float64) dual.Num {
+	return f.RiseAt(0, m, tFrom, tTo, p)
+}
+
+// RiseAt is Rise at t seconds from the start of a run, with the speed of
+// that moment (a speed that falls to zero leaves the fan as its stopped
+// loss, when it has one, else as a fan at zero speed: no rise).
+func (f *Fan) RiseAt(t float64, m, tFrom, tTo dual.Num, p float64) dual.Num {
 	if f.Stopped {
 		return f.StoppedLoss.Rise(m, tFrom, tTo, p)
 	}
-	s := f.ratio()
+	s := f.ratioAt(t)
+	if s <= 0 {
+		if f.StoppedLoss != nil {
+			return f.StoppedLoss.Rise(m, tFrom, tTo, p)
+		}
+		s = 1e-6
+	}
 	rho := air.Density(tFrom, p)
 	q := m.Div(rho).Scale(1 / s) // the flow on the curve's own speed
 	return f.curveAt(q).Mul(rho).Scale(s * s / f.CurveDensity)

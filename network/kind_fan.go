@@ -28,7 +28,7 @@ func init() {
 		keys: []keySpec{
 			{name: "curve", what: "table", need: "required", help: "[volume flow, static pressure] points, flows increasing from shut-off to free delivery"},
 			{name: "curve_speed", dim: units.RotationalSpeed, help: "speed the curve was measured at, e.g. 4000 rpm"},
-			{name: "speed", dim: units.RotationalSpeed, need: "with curve_speed", help: "speed it runs at"},
+			{name: "speed", dim: units.RotationalSpeed, need: "with curve_speed", help: "speed it runs at: constant or a profile in time (a fan that slows at night, fails at a moment: a step to 0)"},
 			{name: "curve_density", dim: units.Density, def: "1.2 kg/m3 (standard air)", help: "air density of the curve"},
 			{name: "state", what: "word", def: "running", help: "running or stopped"},
 			{name: "area", dim: units.Area, need: "with state: stopped", help: "the fan's face (frame opening) area"},
@@ -55,11 +55,20 @@ const StoppedFanK = 4.0
 // FanParams is a fan.
 type FanParams struct {
 	branch
-	Fan elements.Fan
+	Fan   elements.Fan
+	speed Profile // the speed in time (rev/s), nil when constant
 }
 
 func (p *FanParams) element(e linkEnv) (elements.Element, error) {
-	f, err := elements.NewFan(p.Fan)
+	fan := p.Fan
+	if p.speed != nil {
+		// The speed follows its profile through a run (rev/s → rpm); the
+		// run steps onto its jumps.
+		prof := p.speed
+		fan.SpeedAt = func(t float64) float64 { return prof.At(t) * 60 }
+		e.net.profiles = append(e.net.profiles, prof)
+	}
+	f, err := elements.NewFan(fan)
 	if err != nil {
 		return nil, err
 	}
@@ -78,11 +87,17 @@ func parseFan(o *object, m *Model) LinkParams {
 		}
 		f.Curve = c
 	}
+	var speedProfile Profile
 	if o.has("speed") || o.has("curve_speed") {
-		s, ok1 := o.positive("speed", units.RotationalSpeed, true)
+		s, prof, ok1 := o.varying("speed", units.RotationalSpeed, true)
+		if ok1 && prof == nil && !(s > 0) {
+			o.r.addf(o.values["speed"], o.field("speed"), "must be greater than zero (use state: stopped for a fan that does not run)")
+			ok1 = false
+		}
 		s0, ok2 := o.positive("curve_speed", units.RotationalSpeed, true)
 		ok = ok && ok1 && ok2
 		f.Speed, f.CurveSpeed = s*60, s0*60 // rpm
+		speedProfile = prof
 	}
 	if o.has("curve_density") {
 		d, ok1 := o.positive("curve_density", units.Density, true)
@@ -128,5 +143,5 @@ func parseFan(o *object, m *Model) LinkParams {
 		o.r.addf(o.values["curve"], o.field("curve"), "%v", err)
 		return nil
 	}
-	return &FanParams{branch: b, Fan: f}
+	return &FanParams{branch: b, Fan: f, speed: speedProfile}
 }

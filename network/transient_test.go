@@ -301,3 +301,52 @@ func TestRunBeyondDenseLimit(t *testing.T) {
 		t.Errorf("energy imbalance %.3g (relative)", r)
 	}
 }
+
+// A fan whose speed steps down from 4000 to 2000 rpm at t = 60 s: long
+// after the step, a run arrives at the steady state of the same box with
+// the fan at 2000 rpm throughout (the fan laws scale the curve by the
+// speed; consistency of the speed profile with a constant speed).
+func TestFanSpeedProfile(t *testing.T) {
+	box := func(speed string) string {
+		return `
+ambient: {temperature: 30 degC}
+nodes:
+  - {id: inside, kind: air, volume: 2 L}
+  - {id: board, power: 25 W, capacity: 300 J/K, limit: 90 degC}
+links:
+  - {kind: fan, from: ambient, to: inside, curve: [[0, 60 Pa], [10 L/s, 45 Pa], [20 L/s, 0 Pa]], curve_speed: 4000 rpm, speed: ` + speed + `}
+  - {kind: loss, from: inside, to: ambient, coefficient: 2, area: 20 cm2}
+  - {kind: convection, from: board, to: inside, coefficient: 25 W/m2/K, area: 0.04 m2}
+  - {kind: convection, from: board, to: ambient, coefficient: 3 W/m2/K, area: 0.02 m2}
+`
+	}
+	slow := assembleModel(t, "slow.yaml", box("2000 rpm"))
+	st := slow.Steady()
+	res := solve.Newton(st, st.InitialGuess(), solve.Settings{})
+	if !res.Reason.Converged() {
+		t.Fatal(res.Reason, res.Err)
+	}
+	want := slow.Solution(res.X)
+	net := assembleModel(t, "step.yaml", box("{step: {before: 4000 rpm, after: 2000 rpm, at: 60 s}}"))
+	st = net.Steady()
+	res = solve.Newton(st, st.InitialGuess(), solve.Settings{})
+	if !res.Reason.Converged() {
+		t.Fatal(res.Reason, res.Err)
+	}
+	if fast := net.Solution(res.X); !(fast.T[2] < want.T[2]-1) {
+		t.Errorf("at t = 0 the fan runs at 4000 rpm: board %.2f K, want well below %.2f K", fast.T[2], want.T[2])
+	}
+	h, err := net.Run(network.RunOptions{End: 20000, RelTol: 1e-7, AbsTol: 1e-5})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !h.Completed() {
+		t.Fatalf("run ended: %v (%v)", h.Result.Reason, h.Result.Err)
+	}
+	last := h.T[len(h.T)-1]
+	for i, n := range net.Nodes {
+		if d := math.Abs(last[i] - want.T[i]); d > 1e-4 {
+			t.Errorf("%s: %.6f K after the run, %.6f K at 2000 rpm throughout", n.ID, last[i], want.T[i])
+		}
+	}
+}
