@@ -207,11 +207,13 @@ type painter struct {
 	faces    map[string]font.Face
 }
 
-// paint runs one attribute's list of operations.
+// paint runs one attribute's list of operations. Each list starts from
+// the default drawing state (black pen and fill, a line 1 point wide, solid,
+// 14-point regular text): Graphviz writes into every list only what differs
+// from the defaults, so state left over from an earlier list (the thick
+// outline of a node over its limit, a dashed edge) must not carry over.
 func (p *painter) paint(s string) error {
-	if p.pen == nil {
-		p.pen, p.fill, p.lineW, p.fontSize = color.Black, color.Black, 1, 14
-	}
+	p.reset()
 	r := &xdotReader{s: s}
 	for {
 		r.space()
@@ -255,6 +257,12 @@ func (p *painter) paint(s string) error {
 			return r.err
 		}
 	}
+}
+
+// reset restores the default drawing state of an xdot operation list.
+func (p *painter) reset() {
+	p.pen, p.fill, p.lineW, p.fontSize = color.Black, color.Black, 1, 14
+	p.dashed, p.bold = false, false
 }
 
 // path draws a polygon, polyline or Bézier spline.
