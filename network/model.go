@@ -54,6 +54,7 @@ type NodeSpec struct {
 	Limit       float64  // highest allowed temperature, K (when HasLimit)
 	HasLimit    bool
 	Note        string
+	Group       string // what the node belongs to (a board, a heat sink), for diagrams; "" for none
 	Line        int
 }
 
@@ -71,6 +72,7 @@ type ComponentSpec struct {
 	Limit    float64 // highest allowed junction temperature, K (when HasLimit)
 	HasLimit bool
 	Note     string
+	Group    string // as NodeSpec.Group
 	Line     int
 }
 

@@ -126,9 +126,9 @@ func (r *reader) readAmbient(top *object, m *Model) {
 }
 
 var (
-	solidKeys = []string{"id", "kind", "power", "limit", "note"}
-	fixedKeys = []string{"id", "kind", "temperature", "note"}
-	airKeys   = []string{"id", "kind", "limit", "note"}
+	solidKeys = []string{"id", "kind", "power", "limit", "note", "group"}
+	fixedKeys = []string{"id", "kind", "temperature", "note", "group"}
+	airKeys   = []string{"id", "kind", "limit", "note", "group"}
 	nodeKinds = []string{string(Solid), string(Fixed), string(Air)}
 )
 
@@ -182,6 +182,7 @@ func (r *reader) readNodes(n *yaml.Node, m *Model, ids map[string]nodeRef) []Nod
 		}
 		spec.ID = id
 		spec.Note, _ = o.str("note")
+		spec.Group, _ = o.str("group")
 		switch spec.Kind {
 		case Solid:
 			o.checkKeys(append(solidKeys, capacityKeys...), "a solid node")
@@ -212,7 +213,7 @@ func (r *reader) readNodes(n *yaml.Node, m *Model, ids map[string]nodeRef) []Nod
 	return out
 }
 
-var componentKeys = []string{"id", "power", "r_jc", "r_jb", "case", "board", "limit", "note"}
+var componentKeys = []string{"id", "power", "r_jc", "r_jb", "case", "board", "limit", "note", "group"}
 
 func (r *reader) readComponents(n *yaml.Node, m *Model, ids map[string]nodeRef) []ComponentSpec {
 	var out []ComponentSpec
@@ -230,6 +231,7 @@ func (r *reader) readComponents(n *yaml.Node, m *Model, ids map[string]nodeRef) 
 		}
 		c.ID = id
 		c.Note, _ = o.str("note")
+		c.Group, _ = o.str("group")
 		c.Power, _ = o.power("power", true)
 		c.Limit, c.HasLimit = o.temperature("limit", false)
 		c.Capacity = readCapacity(o, m)

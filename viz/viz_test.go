@@ -94,12 +94,13 @@ func TestTextReport(t *testing.T) {
 }
 
 func TestScales(t *testing.T) {
+	marginScale := marginScaleFor(5)
 	assert.Equal(t, marginScale[0].c, marginScale.at(-100))
 	assert.Equal(t, marginScale[len(marginScale)-1].c, marginScale.at(1e3))
-	mid := marginScale.at(2.5) // halfway between rust (0 K) and straw (5 K)
-	assert.InDelta(t, (0xc0+0xe8)/2.0, mid.r, 1e-9)
+	mid := marginScale.at(2.5) // halfway between brick (0 K) and amber (5 K)
+	assert.InDelta(t, (0xad+0xc2)/2.0, mid.r, 1e-9)
 	assert.Equal(t, "#ffffff", textOn(marginScale[0].c))
-	assert.Equal(t, "#1d1d1d", textOn(noLimitFill))
+	assert.Equal(t, "#111111", textOn(noLimitFill))
 }
 
 func TestXdotReader(t *testing.T) {
