@@ -44,6 +44,7 @@ type diagramState struct {
 	faded   bool                // some arrow is faded
 	air     bool                // some arrow carries heat in moving air
 	kinds   map[string]bool     // line styles in use
+	mixed   bool                // an arrow joins radiation with other links
 }
 
 // NodeGroups returns the group of every node of a model that names one.
@@ -161,6 +162,9 @@ func newDiagramState(sol *network.Solution, opt DiagramOptions) *diagramState {
 		}
 		ds.air = ds.air || e.air
 		ds.kinds[linkStyle(e)] = true
+		if r := radiatedShare(e); r > 0.005 && r < 0.995 {
+			ds.mixed = true
+		}
 		ds.edges = append(ds.edges, e)
 	}
 	return ds
@@ -197,16 +201,31 @@ func linkStyle(e heatEdge) string {
 	return styleSolid
 }
 
-// watts formats a heat flow with three significant digits, never "-0 W".
+// watts formats a heat flow with three significant digits; round-off
+// below a nanowatt is 0 W, never "-0 W".
 func watts(x float64) string {
-	s := strconv.FormatFloat(x, 'g', 3, 64)
-	if x == 0 || s == "-0" {
-		s = "0"
+	if math.Abs(x) < 1e-9 {
+		return "0 W" // round-off, and never "-0 W"
 	}
+	s := strconv.FormatFloat(x, 'g', 3, 64)
 	if strings.Contains(s, "e") {
 		s = fmt.Sprintf("%.2g", x)
 	}
 	return s + " W"
+}
+
+// radiatedShare is the part of an arrow's heat carried by radiation.
+func radiatedShare(e heatEdge) float64 {
+	if e.heat <= 0 {
+		return 0
+	}
+	rad := 0.0
+	for _, p := range e.parts {
+		if p.kind == "radiation" || p.kind == "enclosure" {
+			rad += p.heat
+		}
+	}
+	return rad / e.heat
 }
 
 // linkNames lists the link ids of an arrow.
@@ -221,6 +240,12 @@ func edgeAttrsFor(e heatEdge, qMax float64, opt DiagramOptions) map[string]strin
 		weight = 0.8 + 5.2*e.heat/qMax
 	}
 	label := watts(e.heat)
+	if r := radiatedShare(e); r > 0.005 && r < 0.995 {
+		// One arrow joins a surface's convection and radiation: its line
+		// is that of the larger part, and the label gives the radiated
+		// share.
+		label += fmt.Sprintf(" (%.0f %% rad.)", 100*r)
+	}
 	if opt.LinkLabels {
 		label = linkNames(e) + "\n" + label
 	}
@@ -280,7 +305,7 @@ func nodeLabel(n network.NodeResult, members []string) string {
 		label += "\nno limit"
 	}
 	if n.Power != 0 {
-		label += "\nheat input " + watts(n.Power)
+		label += "\npower " + watts(n.Power)
 	}
 	return label
 }
@@ -382,8 +407,12 @@ func (d *dotBuilder) legendFor(sol *network.Solution, opt DiagramOptions, tMin, 
 	if ds.kinds[styleConvection] {
 		line("dashed: convection to air", "")
 	}
-	if ds.kinds[styleRadiation] {
+	if ds.kinds[styleRadiation] || ds.mixed {
 		line("dotted: radiation", "")
+	}
+	if ds.mixed {
+		line("(x % rad.): radiated share of", "")
+		line("an arrow that joins both", "")
 	}
 	if ds.air {
 		line("blue, open head: heat carried by moving air", airColour)

@@ -73,7 +73,7 @@ func TestJSONFullPrecision(t *testing.T) {
 	assert.Equal(t, sol.Nodes[1].Temperature-273.15, float64(r.Nodes[1].TemperatureC))
 	assert.Equal(t, sol.Links[1].Heat, float64(r.Links[1].HeatW))
 	assert.InDelta(t, -1.5, float64(r.Links[1].HeatW), 1e-12)
-	assert.Equal(t, []string(nil), r.Exceeded)
+	assert.Equal(t, []string{}, r.Exceeded)
 }
 
 func TestTextReport(t *testing.T) {
@@ -196,7 +196,7 @@ func TestDOTMergesParallelLinksAndSplitsFixedNodes(t *testing.T) {
 		require.Positive(t, rad)
 		// One arrow from n<i> to its own copy of ambient, labelled with the
 		// sum, its tooltip naming both links.
-		re := regexp.MustCompile(fmt.Sprintf(`"n%d"->"ambient#\d+"\[[^\]]*label="([^"]+) W"[^\]]*tooltip="2 links, [^"]*c%d \(convection\) [^"]*; r%d \(radiation\) [^"]*"`, i, i, i))
+		re := regexp.MustCompile(fmt.Sprintf(`"n%d"->"ambient#\d+"\[[^\]]*label="([^"]+) W \(\d+ %% rad\.\)"[^\]]*tooltip="2 links, [^"]*c%d \(convection\) [^"]*; r%d \(radiation\) [^"]*"`, i, i, i))
 		m := re.FindStringSubmatch(dot)
 		require.NotNil(t, m, "n%d: one merged arrow to ambient", i)
 		assert.Equal(t, fmt.Sprintf("%.3g", conv+rad), m[1])
