@@ -13,6 +13,7 @@ import (
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/kindscmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/materialscmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/reportcmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/solvecmd"
 	"github.com/heatgraph/heatgraph/network"
 	"github.com/spf13/cobra"
@@ -46,6 +47,7 @@ codes, product-safety standards and licensed engineering practice.`,
 		solvecmd.NewCmd(ios, nil),
 		checkcmd.NewCmd(ios, nil),
 		graphcmd.NewCmd(ios, nil),
+		reportcmd.NewCmd(ios, nil),
 		materialscmd.NewCmd(ios),
 		kindscmd.NewCmd(ios),
 	)
