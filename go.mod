@@ -5,6 +5,7 @@ go 1.26.0
 require (
 	github.com/awalterschulze/gographviz v2.0.3+incompatible
 	github.com/fogleman/gg v1.3.0
+	github.com/fsnotify/fsnotify v1.10.1
 	github.com/golang/freetype v0.0.0-20170609003504-e2365dfdc4a0
 	github.com/spf13/cobra v1.10.2
 	github.com/stretchr/testify v1.12.1

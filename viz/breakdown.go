@@ -107,6 +107,9 @@ type ArcDrop struct {
 func arcLinks(e heatEdge) string {
 	names := make([]string, 0, len(e.parts))
 	for _, p := range e.parts {
+		if len(e.parts) > 1 && math.Abs(p.heat) <= 1e-9*math.Abs(e.heat) {
+			continue // a link that carries nothing here (air drawn in at ambient)
+		}
 		id := p.what
 		if i := strings.Index(id, " ("); i > 0 {
 			id = id[:i]

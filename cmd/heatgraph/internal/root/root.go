@@ -15,6 +15,7 @@ import (
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/materialscmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/reportcmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/solvecmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/watchcmd"
 	"github.com/heatgraph/heatgraph/network"
 	"github.com/spf13/cobra"
 )
@@ -48,6 +49,7 @@ codes, product-safety standards and licensed engineering practice.`,
 		checkcmd.NewCmd(ios, nil),
 		graphcmd.NewCmd(ios, nil),
 		reportcmd.NewCmd(ios, nil),
+		watchcmd.NewCmd(ios, nil),
 		materialscmd.NewCmd(ios),
 		kindscmd.NewCmd(ios),
 	)
