@@ -142,7 +142,7 @@ func NewReport(m *network.Model, sol *network.Solution, run Run) *Report {
 		Solver:          solverReport(run),
 		RequiredMarginK: Number(m.RequiredMargin),
 		Exceeded:        []string{},
-		Warnings:        runWarnings(run),
+		Warnings:        append([]string{}, runWarnings(run)...), // [] when none, never null
 		Caution:         Caution,
 	}
 	if m.Ambient.FromAlt {
