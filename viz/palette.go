@@ -63,9 +63,9 @@ func (s scale) at(v float64) rgb {
 // after a simulation of deuteranopia and protanopia, and text contrast.
 var (
 	marginColours = [5]rgb{
-		{0x77, 0x18, 0x4d}, // plum, L* 27: 10 K or more over
-		{0xad, 0x3d, 0x32}, // brick, L* 42: at the limit
-		{0xc2, 0x84, 0x22}, // amber, L* 60: at the required margin
+		{0x77, 0x18, 0x4d}, // plum, L* 27: over the limit
+		{0xad, 0x3d, 0x32}, // brick, L* 42: within the limit, under the required margin
+		{0xc2, 0x84, 0x22}, // amber, L* 60: from the required margin up
 		{0xba, 0xc2, 0x6b}, // pale olive, L* 76
 		{0xb6, 0xee, 0xe2}, // pale mint, L* 90: plenty of margin
 	}
@@ -92,21 +92,23 @@ type marginStep struct {
 	text   string
 }
 
-// marginSteps returns the five margin steps for a model's required margin
-// m (K): 10 K over, at the limit, m, 3m and 6m (with 5 K standing in for m
-// when the model requires none).
+// marginSteps returns the five margin bands for a model's required margin
+// m (K): over the limit, 0 to m (tight), m to 3m, 3m to 6m, and 6m or more
+// (with 5 K standing in for m when the model requires none). Each step's
+// margin is where its band starts; the first band takes every margin
+// below zero.
 func marginSteps(required float64) [5]marginStep {
 	m := required
-	label := fmt.Sprintf("margin %s K: the required margin", trimK(m))
+	tight := fmt.Sprintf("margin 0 to %s K: tight", trimK(m))
 	if m <= 0 {
 		m = defaultMargin
-		label = fmt.Sprintf("margin %s K", trimK(m))
+		tight = fmt.Sprintf("margin 0 to %s K", trimK(m))
 	}
 	return [5]marginStep{
-		{-10, "10 K or more over: OVER"},
-		{0, "at the limit"},
-		{m, label},
-		{3 * m, fmt.Sprintf("margin %s K", trimK(3*m))},
+		{-10, "over the limit: OVER"},
+		{0, tight},
+		{m, fmt.Sprintf("margin %s to %s K", trimK(m), trimK(3*m))},
+		{3 * m, fmt.Sprintf("margin %s to %s K", trimK(3*m), trimK(6*m))},
 		{6 * m, fmt.Sprintf("margin %s K or more", trimK(6*m))},
 	}
 }

@@ -146,7 +146,8 @@ func TestMarginStepsFollowRequiredMargin(t *testing.T) {
 	steps := marginSteps(8)
 	require.Len(t, steps, 5)
 	assert.Equal(t, []float64{-10, 0, 8, 24, 48}, []float64{steps[0].margin, steps[1].margin, steps[2].margin, steps[3].margin, steps[4].margin})
-	assert.Contains(t, steps[2].text, "8 K: the required margin")
+	assert.Equal(t, "margin 0 to 8 K: tight", steps[1].text)
+	assert.Equal(t, "margin 8 to 24 K", steps[2].text)
 	assert.Equal(t, "margin 48 K or more", steps[4].text)
 	assert.Equal(t, 5.0, marginSteps(0)[2].margin, "no required margin: 5 K steps")
 	sol, _ := solveText(t, "m.yaml", `
@@ -161,13 +162,25 @@ links:
 `)
 	dot, err := DOT(sol, ColourMargin)
 	require.NoError(t, err)
-	assert.Contains(t, dot, "margin 8 K: the required margin")
-	assert.Contains(t, dot, "margin 24 K")
+	assert.Contains(t, dot, "margin 0 to 8 K: tight")
+	assert.Contains(t, dot, "margin 24 to 48 K")
 	assert.Contains(t, dot, "tight (margin under 8 K)")
 	assert.Contains(t, dot, "margin +5.0 K tight", "warm is 40 °C against 45 °C")
 	assert.Contains(t, dot, "margin +30.0 K ok")
-	assert.Contains(t, dot, `fillcolor="#bac26b"`, "30 K is in the 24 K band")
-	assert.Contains(t, dot, `fillcolor="#ad3d32"`, "5 K is under 8 K: the band at the limit")
+	assert.Contains(t, dot, `fillcolor="#bac26b"`, "30 K is in the band from 24 to 48 K")
+	assert.Contains(t, dot, `fillcolor="#ad3d32"`, "5 K is under 8 K: the tight band")
 	assert.Contains(t, dot, "dashed", "the tight node's outline")
 	assert.NotContains(t, dot, "moving air", "the model has no moving air")
+}
+
+// Each fill is exactly one of the legend's bands: over the limit, tight
+// (0 to m), m to 3m, 3m to 6m, 6m or more.
+func TestMarginBands(t *testing.T) {
+	s := marginScaleFor(10)
+	for _, c := range []struct {
+		margin float64
+		band   int
+	}{{-30, 0}, {-0.01, 0}, {0, 1}, {9.99, 1}, {10, 2}, {29.9, 2}, {30, 3}, {59.9, 3}, {60, 4}, {500, 4}} {
+		assert.Equal(t, marginColours[c.band], s.band(c.margin), "margin %g K", c.margin)
+	}
 }
