@@ -202,6 +202,7 @@ type painter struct {
 	fill     color.Color
 	lineW    float64
 	dashed   bool
+	dotted   bool
 	fontSize float64
 	bold     bool
 	faces    map[string]font.Face
@@ -262,7 +263,7 @@ func (p *painter) paint(s string) error {
 // reset restores the default drawing state of an xdot operation list.
 func (p *painter) reset() {
 	p.pen, p.fill, p.lineW, p.fontSize = color.Black, color.Black, 1, 14
-	p.dashed, p.bold = false, false
+	p.dashed, p.dotted, p.bold = false, false, false
 }
 
 // path draws a polygon, polyline or Bézier spline.
@@ -296,9 +297,13 @@ func (p *painter) finish(filled bool) {
 	}
 	p.dc.SetColor(p.pen)
 	p.dc.SetLineWidth(p.lineW * p.scale)
-	if p.dashed {
+	switch {
+	case p.dotted:
+		// Short dashes with round caps: dots.
+		p.dc.SetDash(p.lineW*p.scale, (2+2*p.lineW)*p.scale)
+	case p.dashed:
 		p.dc.SetDash(5*p.scale, 3*p.scale)
-	} else {
+	default:
 		p.dc.SetDash()
 	}
 	p.dc.SetLineCapRound()
@@ -342,10 +347,12 @@ func (p *painter) style(s string) {
 		if w, err := strconv.ParseFloat(strings.TrimSuffix(strings.TrimPrefix(s, "setlinewidth("), ")"), 64); err == nil {
 			p.lineW = w
 		}
-	case s == "dashed" || s == "dotted":
-		p.dashed = true
+	case s == "dashed":
+		p.dashed, p.dotted = true, false
+	case s == "dotted":
+		p.dashed, p.dotted = false, true
 	case s == "solid":
-		p.dashed = false
+		p.dashed, p.dotted = false, false
 	}
 }
 

@@ -52,3 +52,19 @@ func TestPNGDrawingStateDoesNotCarryOver(t *testing.T) {
 	dashed, solid := redPixels(p.dc.Image(), 0, 100), redPixels(p.dc.Image(), 100, 200)
 	assert.Less(t, float64(dashed), 0.8*float64(solid), "dashed %d, solid %d", dashed, solid)
 }
+
+// Dotted lines are drawn apart from dashed ones: fewer red pixels.
+func TestPNGDottedIsNotDashed(t *testing.T) {
+	count := func(style string) int {
+		p := &painter{dc: gg.NewContext(200, 40), scale: 1,
+			x: func(x float64) float64 { return x }, y: func(y float64) float64 { return 40 - y }}
+		p.dc.SetRGB(1, 1, 1)
+		p.dc.Clear()
+		require.NoError(t, p.paint("S 6 -"+style+" S 15 -setlinewidth(2) c 7 -#ff0000 L 2 10.5 20.5 190.5 20.5 "))
+		return redPixels(p.dc.Image(), 0, 200)
+	}
+	solid, dashed, dotted := count("solid"), count("dashed"), count("dotted")
+	assert.Less(t, dashed, solid)
+	assert.Less(t, dotted, dashed)
+	assert.Greater(t, dotted, 0)
+}
