@@ -249,6 +249,12 @@ func edgeAttrsFor(e heatEdge, qMax float64, opt DiagramOptions) map[string]strin
 	if opt.LinkLabels {
 		label = linkNames(e) + "\n" + label
 	}
+	if weight > 2.5 {
+		// Graphviz keeps a label clear of the edge's centre line, not of
+		// its width: an empty line under the text lifts it off a thick
+		// arrow.
+		label += "\n "
+	}
 	colour := edgeColour
 	style := linkStyle(e)
 	attrs := map[string]string{

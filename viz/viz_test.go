@@ -56,7 +56,7 @@ func TestDOTFollowsHeat(t *testing.T) {
 	// "back" is defined shelf -> chip but heat flows chip -> shelf.
 	assert.Contains(t, dot, `"chip"->"shelf"`)
 	assert.NotContains(t, dot, `"shelf"->"chip"`)
-	assert.Contains(t, dot, `label="1.5 W"`)
+	assert.Contains(t, dot, `label="1.5 W\n "`, "a thick arrow's label is lifted off it")
 	assert.Contains(t, dot, "margin +10.0 K")
 	assert.Contains(t, dot, "cluster_legend")
 	assert.Contains(t, dot, "confirm by measurement")
@@ -171,7 +171,7 @@ links:
 	dot, err := DOT(sol, ColourMargin)
 	require.NoError(t, err)
 	assert.Contains(t, dot, `"mid"->"out"`)
-	assert.Contains(t, dot, `label="10 W"`)
+	assert.Contains(t, dot, `label="10 W\n "`)
 }
 
 // Parallel links between two nodes become one arrow with their heat
@@ -196,7 +196,7 @@ func TestDOTMergesParallelLinksAndSplitsFixedNodes(t *testing.T) {
 		require.Positive(t, rad)
 		// One arrow from n<i> to its own copy of ambient, labelled with the
 		// sum, its tooltip naming both links.
-		re := regexp.MustCompile(fmt.Sprintf(`"n%d"->"ambient#\d+"\[[^\]]*label="([^"]+) W \(\d+ %% rad\.\)"[^\]]*tooltip="2 links, [^"]*c%d \(convection\) [^"]*; r%d \(radiation\) [^"]*"`, i, i, i))
+		re := regexp.MustCompile(fmt.Sprintf(`"n%d"->"ambient#\d+"\[[^\]]*label="([^"]+) W \(\d+ %% rad\.\)(?:\\n )?"[^\]]*tooltip="2 links, [^"]*c%d \(convection\) [^"]*; r%d \(radiation\) [^"]*"`, i, i, i))
 		m := re.FindStringSubmatch(dot)
 		require.NotNil(t, m, "n%d: one merged arrow to ambient", i)
 		assert.Equal(t, fmt.Sprintf("%.3g", conv+rad), m[1])

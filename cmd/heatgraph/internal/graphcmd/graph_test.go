@@ -54,7 +54,7 @@ func TestGraphDiagramLanguage(t *testing.T) {
 	assert.Contains(t, dot, `cluster_group_\"main-board\"`, "groups are clusters")
 	assert.Contains(t, dot, "style=dashed", "convection is dashed")
 	assert.Contains(t, dot, "dotted: radiation", "radiation is explained")
-	assert.Contains(t, dot, `label="6.99 W (42 % rad.)"`, "the radiated share of a merged arrow")
+	assert.Contains(t, dot, `label="6.99 W (42 % rad.)\n "`, "the radiated share of a merged arrow")
 	assert.Contains(t, dot, `lid-glow (radiation) 2.91 W`, "the kind is named on hover")
 	assert.Contains(t, dot, "101.33 kPa", "the header gives the pressure")
 	assert.NotContains(t, dot, "moving air")
@@ -63,7 +63,7 @@ func TestGraphDiagramLanguage(t *testing.T) {
 
 	dot, err = graph(t, "--link-labels", "--hide-below", "0.1W", "--color", "temperature")
 	require.NoError(t, err)
-	assert.Contains(t, dot, `label="spreader\n`)
+	assert.Contains(t, dot, `label="spreader\n1.67 W"`, "a thin arrow's label is not lifted")
 	assert.NotContains(t, dot, "gasket (lumped)", "the trickle is hidden")
 	assert.Contains(t, dot, "smaller flows not drawn")
 	assert.Contains(t, dot, "colour: temperature")
