@@ -16,6 +16,7 @@ import (
 	"time"
 
 	"github.com/chromedp/cdproto/cdp"
+	"github.com/chromedp/cdproto/emulation"
 	"github.com/chromedp/cdproto/log"
 	"github.com/chromedp/cdproto/network"
 	"github.com/chromedp/cdproto/runtime"
@@ -148,6 +149,38 @@ func TestBrowserReportOffline(t *testing.T) {
 		assert.Equal(t, url, r, "the report requests nothing but itself")
 	}
 	assert.NotEmpty(t, reqs, "network events are seen")
+}
+
+// The report prints on A4 and on Letter: in print media, at the width of
+// an A4 page less its 15 mm margins (180 mm, 680 CSS px), nothing sticks
+// out sideways; and chromium prints it to PDF on both papers.
+func TestBrowserReportPrints(t *testing.T) {
+	ctx, pl := browser(t)
+	dir := t.TempDir()
+	path := filepath.Join(dir, "box.yaml")
+	data, err := os.ReadFile("../../../../examples/outdoor-controller.yaml")
+	require.NoError(t, err)
+	require.NoError(t, os.WriteFile(path, data, 0o644))
+	page, _, err := reportcmd.Build(path, 0, false)
+	require.NoError(t, err)
+	html := filepath.Join(dir, "review.html")
+	require.NoError(t, os.WriteFile(html, page, 0o644))
+
+	_, err = chromedp.Call(ctx, emulation.SetEmulatedMedia, emulation.SetEmulatedMediaParams{Media: "print"})
+	require.NoError(t, err)
+	require.NoError(t, chromedp.Do(ctx, chromedp.EmulateViewport(680, 1000), chromedp.Navigate("file://"+html), chromedp.WaitVisible("#results")))
+	widths, err := chromedp.Run(ctx, chromedp.Evaluate[[3]float64](`[document.documentElement.scrollWidth, document.documentElement.clientWidth, document.querySelector("#diagram svg").getBoundingClientRect().width]`))
+	require.NoError(t, err)
+	assert.LessOrEqual(t, widths[0], widths[1], "the page is no wider than the paper")
+	assert.LessOrEqual(t, widths[2], 680.0, "the diagram fits the paper's width")
+	assert.Greater(t, widths[2], 100.0)
+	for _, paper := range []chromedp.PaperSize{chromedp.PaperA4, chromedp.PaperLetter} {
+		pdf, err := chromedp.Run(ctx, chromedp.PrintToPDF(chromedp.PDFPaper(paper)))
+		require.NoError(t, err)
+		assert.True(t, strings.HasPrefix(string(pdf), "%PDF-"), "paper %v", paper)
+	}
+	errs, _ := pl.snapshot()
+	assert.Empty(t, errs)
 }
 
 func TestBrowserLiveViewUpdates(t *testing.T) {
