@@ -3,6 +3,7 @@ package viz
 import (
 	"bytes"
 	"encoding/json"
+	"os"
 	"strings"
 	"testing"
 
@@ -93,4 +94,16 @@ links:
 		assert.Contains(t, dot, words)
 	}
 	assert.NotContains(t, dot, "moving air")
+}
+
+// Air drawn in at ambient carries no heat: the text report does not list
+// it as a path ("0.000 W carried by the air ambient → …").
+func TestTextLeavesOutEmptyAirPaths(t *testing.T) {
+	data, err := os.ReadFile("../examples/heatsink-module.yaml")
+	require.NoError(t, err)
+	sol, run := solveText(t, "heatsink-module.yaml", string(data))
+	var text bytes.Buffer
+	require.NoError(t, WriteText(&text, sol, run, ByFile))
+	assert.NotContains(t, text.String(), "0.000 W carried")
+	assert.Contains(t, text.String(), "W carried by the air air-mid → air-out", "air that does carry heat is listed")
 }
