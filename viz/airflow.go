@@ -109,37 +109,37 @@ type BranchReport struct {
 	From         string   `json:"from"`
 	To           string   `json:"to"`
 	Solved       bool     `json:"solved"`
-	MassFlow     float64  `json:"mass_flow_kg_s"`
-	VolumeFlow   float64  `json:"volume_flow_m3_s"`
-	Density      float64  `json:"density_kg_m3"`
-	Velocity     *float64 `json:"velocity_m_s,omitempty"`
-	PressureFrom float64  `json:"pressure_from_Pa"`
-	PressureTo   float64  `json:"pressure_to_Pa"`
-	Law          float64  `json:"law_Pa"`
-	Stack        float64  `json:"stack_Pa"`
-	Share        float64  `json:"share"`
+	MassFlow     Number   `json:"mass_flow_kg_s"`
+	VolumeFlow   Number   `json:"volume_flow_m3_s"`
+	Density      Number   `json:"density_kg_m3"`
+	Velocity     *Number  `json:"velocity_m_s,omitempty"`
+	PressureFrom Number   `json:"pressure_from_Pa"`
+	PressureTo   Number   `json:"pressure_to_Pa"`
+	Law          Number   `json:"law_Pa"`
+	Stack        Number   `json:"stack_Pa"`
+	Share        Number   `json:"share"`
 	Warnings     []string `json:"warnings,omitempty"`
 }
 
 // FanReport is a fan's operating point.
 type FanReport struct {
 	Link         string   `json:"link"`
-	VolumeFlow   float64  `json:"volume_flow_m3_s"`
-	Pressure     float64  `json:"static_pressure_Pa"`
-	Speed        *float64 `json:"speed_rpm,omitempty"`
+	VolumeFlow   Number   `json:"volume_flow_m3_s"`
+	Pressure     Number   `json:"static_pressure_Pa"`
+	Speed        *Number  `json:"speed_rpm,omitempty"`
 	Stopped      bool     `json:"stopped,omitempty"`
-	InletDensity float64  `json:"inlet_density_kg_m3"`
-	FreeDelivery float64  `json:"free_delivery_m3_s"`
+	InletDensity Number   `json:"inlet_density_kg_m3"`
+	FreeDelivery Number   `json:"free_delivery_m3_s"`
 	Warnings     []string `json:"warnings,omitempty"`
 }
 
 // MassBalanceReport is the mass balance of one node.
 type MassBalanceReport struct {
-	Node      string  `json:"node"`
-	In        float64 `json:"in_kg_s"`
-	Out       float64 `json:"out_kg_s"`
-	Imbalance float64 `json:"imbalance_kg_s"`
-	Fixed     bool    `json:"boundary"`
+	Node      string `json:"node"`
+	In        Number `json:"in_kg_s"`
+	Out       Number `json:"out_kg_s"`
+	Imbalance Number `json:"imbalance_kg_s"`
+	Fixed     bool   `json:"boundary"`
 }
 
 // newAirflowReport returns the airflow part of the JSON document, or nil
@@ -150,26 +150,26 @@ func newAirflowReport(sol *network.Solution) *AirflowReport {
 	}
 	r := &AirflowReport{}
 	for _, b := range sol.Branches {
-		br := BranchReport{Link: b.Link, Kind: b.Kind, From: b.From, To: b.To, Solved: b.Solved, MassFlow: b.MassFlow,
-			VolumeFlow: b.VolumeFlow, Density: b.Density, PressureFrom: b.PressureFrom, PressureTo: b.PressureTo,
-			Law: b.Rise, Stack: b.Stack, Share: b.Share, Warnings: b.Warnings}
+		br := BranchReport{Link: b.Link, Kind: b.Kind, From: b.From, To: b.To, Solved: b.Solved, MassFlow: Number(b.MassFlow),
+			VolumeFlow: Number(b.VolumeFlow), Density: Number(b.Density), PressureFrom: Number(b.PressureFrom), PressureTo: Number(b.PressureTo),
+			Law: Number(b.Rise), Stack: Number(b.Stack), Share: Number(b.Share), Warnings: b.Warnings}
 		if b.Velocity != 0 {
-			v := b.Velocity
+			v := Number(b.Velocity)
 			br.Velocity = &v
 		}
 		r.Branches = append(r.Branches, br)
 		if f := b.Fan; f != nil {
-			fr := FanReport{Link: b.Link, VolumeFlow: f.VolumeFlow, Pressure: f.Pressure, InletDensity: f.InletDensity,
-				FreeDelivery: f.FreeDelivery, Stopped: f.Stopped, Warnings: f.Warnings}
+			fr := FanReport{Link: b.Link, VolumeFlow: Number(f.VolumeFlow), Pressure: Number(f.Pressure), InletDensity: Number(f.InletDensity),
+				FreeDelivery: Number(f.FreeDelivery), Stopped: f.Stopped, Warnings: f.Warnings}
 			if f.Speed > 0 {
-				s := f.Speed
+				s := Number(f.Speed)
 				fr.Speed = &s
 			}
 			r.Fans = append(r.Fans, fr)
 		}
 	}
 	for _, m := range sol.Balance.Mass {
-		r.Mass = append(r.Mass, MassBalanceReport{Node: m.Node, In: m.In, Out: m.Out, Imbalance: m.Imbalance, Fixed: m.Fixed})
+		r.Mass = append(r.Mass, MassBalanceReport{Node: m.Node, In: Number(m.In), Out: Number(m.Out), Imbalance: Number(m.Imbalance), Fixed: m.Fixed})
 	}
 	return r
 }

@@ -3,6 +3,7 @@ package viz
 import (
 	"encoding/csv"
 	"io"
+	"math"
 	"strconv"
 
 	"github.com/heatgraph/heatgraph/network"
@@ -13,7 +14,9 @@ import (
 var CSVHeader = []string{"record", "id", "kind", "from", "to", "temperature_degC", "limit_degC", "margin_K", "status", "power_W", "heat_W"}
 
 // WriteCSV writes one table holding every node, link and boundary flow of a
-// solution, numbers at full precision. A table has no room for warnings:
+// solution. Numbers have 10 significant digits, far finer than any model's
+// inputs, and round-off around zero is written 0, never -0. A table has
+// no room for warnings:
 // a number that is not finite leaves its cell empty, and the caller shows
 // the warnings of NonFinite.
 func WriteCSV(w io.Writer, sol *network.Solution) error {
@@ -24,7 +27,7 @@ func WriteCSV(w io.Writer, sol *network.Solution) error {
 		if !finite(x) {
 			return ""
 		}
-		return strconv.FormatFloat(x, 'g', -1, 64)
+		return csvNumber(x)
 	}
 	rows := [][]string{CSVHeader}
 	for _, n := range sol.Nodes {
@@ -44,4 +47,14 @@ func WriteCSV(w io.Writer, sol *network.Solution) error {
 		return err
 	}
 	return cw.Error()
+}
+
+// csvNumber formats a finite number for CSV: 10 significant digits, no
+// exponent for ordinary magnitudes, and 0 for anything that rounds to
+// zero at that precision relative to 1 mW, 1 mK (|x| < 1e-9) or is -0.
+func csvNumber(x float64) string {
+	if math.Abs(x) < 1e-9 {
+		return "0"
+	}
+	return strconv.FormatFloat(x, 'g', 10, 64)
 }

@@ -2,9 +2,7 @@ package viz
 
 import (
 	"fmt"
-	"html"
 	"math"
-	"strconv"
 	"strings"
 
 	"github.com/awalterschulze/gographviz"
@@ -23,28 +21,34 @@ const (
 // Colourings lists the valid colourings.
 var Colourings = []Colouring{ColourMargin, ColourTemperature}
 
-// DOT returns the heat-path diagram of a solution in the DOT language.
-//
-// Nodes show their temperature and, where they have a limit, their margin;
-// the fill follows the chosen colouring. Edges point the way heat flows,
-// carry its value in watts, and grow thicker with it. A legend explains the
-// colours.
+// DOT returns the heat-path diagram of a solution in the DOT language,
+// with the default options and the given colouring (see DOTWith).
 func DOT(sol *network.Solution, colouring Colouring) (string, error) {
+	return DOTWith(sol, DiagramOptions{Colouring: colouring})
+}
+
+// DOTWith returns the heat-path diagram of a solution in the DOT language.
+//
+// Nodes show their temperature, their margin and status word where they
+// have a limit, and their heat input; the fill follows the chosen
+// colouring, the outline the status. Edges point the way heat flows, carry
+// its value in watts, grow thicker with it, and are drawn in the line
+// style of their kind of link (see linkStyle). Nodes of a group are drawn
+// in a box of their own, or as one node. A legend explains it all.
+func DOTWith(sol *network.Solution, opt DiagramOptions) (string, error) {
+	if opt.Colouring == "" {
+		opt.Colouring = ColourMargin
+	}
 	g := gographviz.NewGraph()
 	const name = "heatpaths"
 	d := &dotBuilder{g: g, name: name}
 	d.check(g.SetName(name))
 	d.check(g.SetDir(true))
-	title := sol.Net.Model.Title
-	if title == "" {
-		title = sol.Net.Model.File
-	}
 	for k, v := range map[string]string{
 		"rankdir":  "LR",
 		"fontname": q("Helvetica"),
 		"fontsize": "11",
-		"label": q(fmt.Sprintf("%s\nambient %.1f °C\nestimates from a lumped model: confirm by measurement",
-			title, celsius(sol.Net.Model.Ambient.Temperature))),
+		"label":    q(diagramHeader(sol, opt)),
 		"labelloc": "t",
 		"nodesep":  "0.35",
 		"ranksep":  "0.6",
@@ -56,7 +60,8 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 	for _, n := range sol.Nodes {
 		tMin, tMax = math.Min(tMin, n.Temperature), math.Max(tMax, n.Temperature)
 	}
-	edges := heatEdges(sol)
+	ds := newDiagramState(sol, opt)
+	edges := ds.edges
 	// A fixed node with several links is drawn once at each of them: one
 	// node joined to every part of the box makes the layout slow (Graphviz
 	// draws its long edges through every rank) and the picture a tangle.
@@ -66,7 +71,7 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 		links[e.to]++
 	}
 	ids := map[string]bool{}
-	for _, n := range sol.Nodes {
+	for _, n := range ds.nodes {
 		ids[n.ID] = true
 	}
 	copies := map[string][]string{} // DOT node names of each split fixed node
@@ -83,7 +88,7 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 		return drawn
 	}
 	kinds := map[string]network.NodeKind{}
-	for _, n := range sol.Nodes {
+	for _, n := range ds.nodes {
 		kinds[n.ID] = n.Kind
 	}
 	for i := range edges {
@@ -91,17 +96,11 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 		edges[i].toName = split(edges[i].to, kinds[edges[i].to])
 	}
 
-	for _, n := range sol.Nodes {
-		fill := nodeFill(n, colouring, tMin, tMax)
-		label := fmt.Sprintf("%s\n%.1f °C", n.ID, celsius(n.Temperature))
-		if n.HasLimit {
-			label += fmt.Sprintf("\nmargin %+.1f K", n.Margin)
-		}
-		if n.Power != 0 {
-			label += fmt.Sprintf("\n%.3g W in", n.Power)
-		}
+	steps := marginScaleFor(sol.Net.Model.RequiredMargin)
+	for _, n := range ds.nodes {
+		fill := nodeFill(n, opt.Colouring, tMin, tMax, steps)
 		attrs := map[string]string{
-			"label":     q(label),
+			"label":     q(nodeLabel(n, ds.members[n.ID])),
 			"shape":     nodeShape(n.Kind),
 			"style":     q("filled,rounded"),
 			"fillcolor": q(fill.hex()),
@@ -109,10 +108,16 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 			"fontname":  q("Helvetica"),
 			"fontsize":  "10",
 			"color":     q("#5a5a5a"),
+			"tooltip":   q(nodeTooltip(n, ds.members[n.ID])),
 		}
-		if n.Status == network.Over {
-			attrs["penwidth"] = "3"
-			attrs["color"] = q(marginScale[0].c.hex())
+		switch n.Status {
+		case network.Over:
+			attrs["penwidth"] = "3.5"
+			attrs["color"] = q(overOutline)
+		case network.Tight:
+			attrs["penwidth"] = "2.5"
+			attrs["color"] = q(tightOutline)
+			attrs["style"] = q("filled,rounded,dashed")
 		}
 		names := copies[n.ID]
 		if len(names) == 0 {
@@ -120,8 +125,12 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 		} else {
 			attrs["tooltip"] = q(fmt.Sprintf("%s: drawn at each of its %d links", n.ID, len(names)))
 		}
+		parent := name
+		if gr := ds.group[n.ID]; gr != "" && len(copies[n.ID]) == 0 {
+			parent = d.cluster(gr)
+		}
 		for _, drawn := range names {
-			d.check(g.AddNode(name, q(drawn), attrs))
+			d.check(g.AddNode(parent, q(drawn), attrs))
 		}
 	}
 
@@ -130,14 +139,7 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 		qMax = math.Max(qMax, e.heat)
 	}
 	for _, e := range edges {
-		colour := edgeColour
-		if e.air {
-			colour = airColour
-		}
-		attrs := edgeAttrs(e.heat, qMax, e.tooltip(), colour)
-		if e.air && e.hasFlow {
-			attrs["label"] = q(fmt.Sprintf("%.3g W, %.3g L/s", e.heat, math.Abs(e.flow)*1e3))
-		}
+		attrs := edgeAttrsFor(e, qMax, opt)
 		if e.fromName != e.from || e.toName != e.to {
 			// A copy of a fixed node hangs off its neighbour: leave the
 			// straightening to the paths between the nodes that matter,
@@ -146,7 +148,7 @@ func DOT(sol *network.Solution, colouring Colouring) (string, error) {
 		}
 		d.check(g.AddEdge(q(e.fromName), q(e.toName), true, attrs))
 	}
-	d.legend(colouring, tMin, tMax, len(copies) > 0)
+	d.legendFor(sol, opt, tMin, tMax, len(copies) > 0, ds)
 	if d.err != nil {
 		return "", d.err
 	}
@@ -169,6 +171,7 @@ type heatEdge struct {
 
 type edgePart struct {
 	what string  // "id (kind)" or "id: air from inlet"
+	kind string  // the link's kind
 	heat float64 // W, positive from -> to of the edge
 }
 
@@ -178,9 +181,9 @@ func (e heatEdge) tooltip() string {
 	}
 	items := make([]string, len(e.parts))
 	for i, p := range e.parts {
-		items[i] = fmt.Sprintf("%s %.3g W", p.what, p.heat)
+		items[i] = fmt.Sprintf("%s %s", p.what, watts(p.heat))
 	}
-	return fmt.Sprintf("%d links, %.3g W in all: %s", len(e.parts), e.heat, strings.Join(items, "; "))
+	return fmt.Sprintf("%d links, %s in all: %s", len(e.parts), watts(e.heat), strings.Join(items, "; "))
 }
 
 // heatEdges merges the links of a solution into arrows: links between the
@@ -195,7 +198,7 @@ func heatEdges(sol *network.Solution) []heatEdge {
 	}
 	index := map[key]int{}
 	var edges []heatEdge
-	add := func(from, to string, heat float64, air bool, what string) int {
+	add := func(from, to string, heat float64, air bool, what, kind string) int {
 		a, b, sign := from, to, 1.0
 		if b < a {
 			a, b, sign = b, a, -1
@@ -208,7 +211,7 @@ func heatEdges(sol *network.Solution) []heatEdge {
 			edges = append(edges, heatEdge{from: a, to: b, air: air})
 		}
 		edges[i].heat += sign * heat
-		edges[i].parts = append(edges[i].parts, edgePart{what: what, heat: sign * heat})
+		edges[i].parts = append(edges[i].parts, edgePart{what: what, kind: kind, heat: sign * heat})
 		return i
 	}
 	flows := map[string]float64{} // solved air flows by link, m³/s
@@ -227,7 +230,7 @@ func heatEdges(sol *network.Solution) []heatEdge {
 				// The air a channel passes on carries heat of its own.
 				what = fmt.Sprintf("%s: air from %s", l.ID, p.From)
 			}
-			i := add(p.From, p.To, p.Heat, p.Carried, what)
+			i := add(p.From, p.To, p.Heat, p.Carried, what, l.Kind)
 			if f, solved := flows[l.ID]; solved && p.Carried {
 				if len(edges[i].parts) == 1 {
 					edges[i].flow, edges[i].hasFlow = f, true
@@ -251,76 +254,17 @@ func heatEdges(sol *network.Solution) []heatEdge {
 	return edges
 }
 
-// edgeAttrs returns the attributes of an edge carrying heat watts (≥ 0) of
-// the largest qMax: labelled in watts, thicker for more heat, dashed when
-// it carries next to nothing.
-func edgeAttrs(heat, qMax float64, tooltip, colour string) map[string]string {
-	weight := 1.0
-	if qMax > 0 {
-		weight = 0.8 + 5.2*heat/qMax
-	}
-	attrs := map[string]string{
-		"label":     q(fmt.Sprintf("%.3g W", heat)),
-		"tooltip":   q(tooltip),
-		"penwidth":  strconv.FormatFloat(weight, 'f', 2, 64),
-		"arrowsize": strconv.FormatFloat(0.5+0.1*weight, 'f', 2, 64),
-		"color":     q(colour),
-		"fontname":  q("Helvetica"),
-		"fontsize":  "9",
-	}
-	if colour != edgeColour {
-		attrs["fontcolor"] = q(colour)
-	}
-	if qMax > 0 && heat < 1e-3*qMax {
-		attrs["style"] = "dashed"
-	}
-	return attrs
-}
-
 type dotBuilder struct {
-	g    *gographviz.Graph
-	name string
-	err  error
+	g        *gographviz.Graph
+	name     string
+	err      error
+	clusters map[string]bool
 }
 
 func (d *dotBuilder) check(err error) {
 	if d.err == nil && err != nil {
 		d.err = err
 	}
-}
-
-// legend adds a box that explains shapes, colours and edge widths.
-func (d *dotBuilder) legend(c Colouring, tMin, tMax float64, split bool) {
-	var rows strings.Builder
-	cell := func(fill rgb, text string) {
-		fmt.Fprintf(&rows, `<tr><td bgcolor="%s" width="18"></td><td align="left">%s</td></tr>`, fill.hex(), html.EscapeString(text))
-	}
-	switch c {
-	case ColourTemperature:
-		for _, f := range []float64{0, 0.35, 0.65, 1} {
-			cell(temperatureScale.at(f), fmt.Sprintf("%.1f °C", celsius(tMin+f*(tMax-tMin))))
-		}
-	default:
-		for _, s := range []struct {
-			m    float64
-			text string
-		}{{30, "margin 30 K or more"}, {15, "margin 15 K"}, {5, "margin 5 K"}, {0, "at the limit"}, {-10, "10 K or more over"}} {
-			cell(marginScale.at(s.m), s.text)
-		}
-		cell(noLimitFill, "no limit set")
-	}
-	cell(fixedFill, "fixed temperature")
-	label := fmt.Sprintf(`<<table border="0" cellborder="0" cellspacing="2"><tr><td colspan="2"><b>%s</b></td></tr>%s`+
-		`<tr><td colspan="2" align="left">box: solid; octagon: junction;</td></tr>`+
-		`<tr><td colspan="2" align="left">ellipse: air; cylinder: fixed</td></tr>`+
-		splitRow(split)+
-		`<tr><td colspan="2" align="left">arrows: the way heat flows;</td></tr>`+
-		`<tr><td colspan="2" align="left">width grows with watts;</td></tr>`+
-		`<tr><td colspan="2" align="left"><font color="`+airColour+`">blue: heat carried by moving air</font></td></tr></table>>`,
-		html.EscapeString("colour: "+string(c)), rows.String())
-	const cluster = "cluster_legend"
-	d.check(d.g.AddSubGraph(d.name, cluster, map[string]string{"label": q("legend"), "style": q("rounded"), "color": q("#9a9a9a"), "fontname": q("Helvetica"), "fontsize": "10"}))
-	d.check(d.g.AddNode(cluster, q("legend: colours"), map[string]string{"shape": "plaintext", "label": label, "fontname": q("Helvetica"), "fontsize": "9"}))
 }
 
 // splitRow is the legend's line on fixed nodes drawn more than once.
@@ -332,7 +276,7 @@ func splitRow(split bool) string {
 		`<tr><td colspan="2" align="left">at each of its links)</td></tr>`
 }
 
-func nodeFill(n network.NodeResult, c Colouring, tMin, tMax float64) rgb {
+func nodeFill(n network.NodeResult, c Colouring, tMin, tMax float64, margins scale) rgb {
 	if n.Kind == network.Fixed {
 		return fixedFill
 	}
@@ -346,7 +290,7 @@ func nodeFill(n network.NodeResult, c Colouring, tMin, tMax float64) rgb {
 	if !n.HasLimit {
 		return noLimitFill
 	}
-	return marginScale.at(n.Margin)
+	return margins.band(n.Margin)
 }
 
 func nodeShape(k network.NodeKind) string {

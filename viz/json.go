@@ -15,19 +15,26 @@ const JSONFormat = 1
 // unit in its name; numbers keep full float64 precision. A number that is
 // not finite is never written (see Number and NonFinite).
 type Report struct {
-	Format   int               `json:"heatgraph_json"`
-	Model    string            `json:"model"`
-	Title    string            `json:"title,omitempty"`
-	Units    map[string]string `json:"units"`
-	Ambient  AmbientReport     `json:"ambient"`
-	Solver   SolverReport      `json:"solver"`
-	Nodes    []NodeReport      `json:"nodes,omitempty"`
-	Links    []LinkReport      `json:"links,omitempty"`
-	Balance  *BalanceReport    `json:"energy_balance,omitempty"`
-	Airflow  *AirflowReport    `json:"airflow,omitempty"` // when flows were solved for
-	Exceeded []string          `json:"limits_exceeded,omitempty"`
-	Warnings []string          `json:"warnings"`
-	Caution  string            `json:"caution"`
+	Format  int               `json:"heatgraph_json"`
+	Model   string            `json:"model"`
+	Title   string            `json:"title,omitempty"`
+	Units   map[string]string `json:"units"`
+	Ambient AmbientReport     `json:"ambient"`
+	// RequiredMarginK is the margin every limit must keep (0 when the
+	// model sets none).
+	RequiredMarginK Number         `json:"required_margin_K"`
+	Solver          SolverReport   `json:"solver"`
+	Nodes           []NodeReport   `json:"nodes,omitempty"`
+	Links           []LinkReport   `json:"links,omitempty"`
+	Balance         *BalanceReport `json:"energy_balance,omitempty"`
+	Airflow         *AirflowReport `json:"airflow,omitempty"` // when flows were solved for
+	// Exceeded lists the nodes over their limits; always present, empty
+	// when every limit holds.
+	Exceeded []string `json:"limits_exceeded"`
+	// Breakdown is where each source's heat goes (see NewBreakdown).
+	Breakdown *BreakdownReport `json:"breakdown,omitempty"`
+	Warnings  []string         `json:"warnings"`
+	Caution   string           `json:"caution"`
 }
 
 // AmbientReport gives the ambient conditions.
@@ -135,10 +142,12 @@ func NewReport(m *network.Model, sol *network.Solution, run Run) *Report {
 			"temperature": "degC (and K where the key says _K)", "temperature_difference": "K",
 			"heat": "W", "pressure": "Pa", "length": "m", "details": "SI, as each detail's unit says",
 		},
-		Ambient:  AmbientReport{TemperatureC: Number(celsius(m.Ambient.Temperature)), PressurePa: Number(m.Ambient.Pressure)},
-		Solver:   solverReport(run),
-		Warnings: runWarnings(run),
-		Caution:  Caution,
+		Ambient:         AmbientReport{TemperatureC: Number(celsius(m.Ambient.Temperature)), PressurePa: Number(m.Ambient.Pressure)},
+		Solver:          solverReport(run),
+		RequiredMarginK: Number(m.RequiredMargin),
+		Exceeded:        []string{},
+		Warnings:        append([]string{}, runWarnings(run)...), // [] when none, never null
+		Caution:         Caution,
 	}
 	if m.Ambient.FromAlt {
 		r.Ambient.AltitudeM = num(m.Ambient.Altitude)
@@ -184,6 +193,7 @@ func NewReport(m *network.Model, sol *network.Solution, run Run) *Report {
 	}
 	r.Balance = b
 	r.Airflow = newAirflowReport(sol)
+	r.Breakdown = NewBreakdown(sol).Report()
 	r.Warnings = append(r.Warnings, sol.Warnings...)
 	r.Warnings = append(r.Warnings, NonFinite(sol)...)
 	return r

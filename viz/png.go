@@ -202,16 +202,19 @@ type painter struct {
 	fill     color.Color
 	lineW    float64
 	dashed   bool
+	dotted   bool
 	fontSize float64
 	bold     bool
 	faces    map[string]font.Face
 }
 
-// paint runs one attribute's list of operations.
+// paint runs one attribute's list of operations. Each list starts from
+// the default drawing state (black pen and fill, a line 1 point wide, solid,
+// 14-point regular text): Graphviz writes into every list only what differs
+// from the defaults, so state left over from an earlier list (the thick
+// outline of a node over its limit, a dashed edge) must not carry over.
 func (p *painter) paint(s string) error {
-	if p.pen == nil {
-		p.pen, p.fill, p.lineW, p.fontSize = color.Black, color.Black, 1, 14
-	}
+	p.reset()
 	r := &xdotReader{s: s}
 	for {
 		r.space()
@@ -257,6 +260,12 @@ func (p *painter) paint(s string) error {
 	}
 }
 
+// reset restores the default drawing state of an xdot operation list.
+func (p *painter) reset() {
+	p.pen, p.fill, p.lineW, p.fontSize = color.Black, color.Black, 1, 14
+	p.dashed, p.dotted, p.bold = false, false, false
+}
+
 // path draws a polygon, polyline or Bézier spline.
 func (p *painter) path(op byte, pts [][2]float64) {
 	if len(pts) == 0 {
@@ -288,9 +297,13 @@ func (p *painter) finish(filled bool) {
 	}
 	p.dc.SetColor(p.pen)
 	p.dc.SetLineWidth(p.lineW * p.scale)
-	if p.dashed {
+	switch {
+	case p.dotted:
+		// Short dashes with round caps: dots.
+		p.dc.SetDash(p.lineW*p.scale, (2+2*p.lineW)*p.scale)
+	case p.dashed:
 		p.dc.SetDash(5*p.scale, 3*p.scale)
-	} else {
+	default:
 		p.dc.SetDash()
 	}
 	p.dc.SetLineCapRound()
@@ -334,10 +347,12 @@ func (p *painter) style(s string) {
 		if w, err := strconv.ParseFloat(strings.TrimSuffix(strings.TrimPrefix(s, "setlinewidth("), ")"), 64); err == nil {
 			p.lineW = w
 		}
-	case s == "dashed" || s == "dotted":
-		p.dashed = true
+	case s == "dashed":
+		p.dashed, p.dotted = true, false
+	case s == "dotted":
+		p.dashed, p.dotted = false, true
 	case s == "solid":
-		p.dashed = false
+		p.dashed, p.dotted = false, false
 	}
 }
 

@@ -53,7 +53,7 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 	for _, n := range nodes {
 		idw = max(idw, len(n.ID))
 	}
-	tw.printf("%-*s  %-8s  %9s  %9s  %9s  %9s  %s\n", idw, "node", "kind", "T [°C]", "input [W]", "limit [°C]", "margin [K]", "status")
+	tw.printf("%-*s  %-8s  %9s  %9s  %9s  %9s  %s\n", idw, "node", "kind", "T [°C]", "power [W]", "limit [°C]", "margin [K]", "status")
 	for _, n := range nodes {
 		input, limit, margin := "", "", ""
 		if n.Power != 0 {
@@ -76,6 +76,9 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 	for _, l := range sol.Links {
 		tw.printf("%-*s  %-*s  %10s  %s → %s", idw, l.ID, kw, l.Kind, fnum("%.3f", noNegZero(l.Heat, 3)), l.From, l.To)
 		for _, p := range l.Paths[min(1, len(l.Paths)):] {
+			if p.Heat == 0 || noNegZero(p.Heat, 3) == 0 {
+				continue // air that brings nothing (from ambient) is no path
+			}
 			how := ""
 			if p.Carried {
 				how = " carried by the air"

@@ -56,7 +56,7 @@ func TestDOTFollowsHeat(t *testing.T) {
 	// "back" is defined shelf -> chip but heat flows chip -> shelf.
 	assert.Contains(t, dot, `"chip"->"shelf"`)
 	assert.NotContains(t, dot, `"shelf"->"chip"`)
-	assert.Contains(t, dot, `label="1.5 W"`)
+	assert.Contains(t, dot, `label="1.5 W\n "`, "a thick arrow's label is lifted off it")
 	assert.Contains(t, dot, "margin +10.0 K")
 	assert.Contains(t, dot, "cluster_legend")
 	assert.Contains(t, dot, "confirm by measurement")
@@ -73,7 +73,7 @@ func TestJSONFullPrecision(t *testing.T) {
 	assert.Equal(t, sol.Nodes[1].Temperature-273.15, float64(r.Nodes[1].TemperatureC))
 	assert.Equal(t, sol.Links[1].Heat, float64(r.Links[1].HeatW))
 	assert.InDelta(t, -1.5, float64(r.Links[1].HeatW), 1e-12)
-	assert.Equal(t, []string(nil), r.Exceeded)
+	assert.Equal(t, []string{}, r.Exceeded)
 }
 
 func TestTextReport(t *testing.T) {
@@ -94,12 +94,13 @@ func TestTextReport(t *testing.T) {
 }
 
 func TestScales(t *testing.T) {
+	marginScale := marginScaleFor(5)
 	assert.Equal(t, marginScale[0].c, marginScale.at(-100))
 	assert.Equal(t, marginScale[len(marginScale)-1].c, marginScale.at(1e3))
-	mid := marginScale.at(2.5) // halfway between rust (0 K) and straw (5 K)
-	assert.InDelta(t, (0xc0+0xe8)/2.0, mid.r, 1e-9)
+	mid := marginScale.at(2.5) // halfway between brick (0 K) and amber (5 K)
+	assert.InDelta(t, (0xad+0xc2)/2.0, mid.r, 1e-9)
 	assert.Equal(t, "#ffffff", textOn(marginScale[0].c))
-	assert.Equal(t, "#1d1d1d", textOn(noLimitFill))
+	assert.Equal(t, "#111111", textOn(noLimitFill))
 }
 
 func TestXdotReader(t *testing.T) {
@@ -170,7 +171,7 @@ links:
 	dot, err := DOT(sol, ColourMargin)
 	require.NoError(t, err)
 	assert.Contains(t, dot, `"mid"->"out"`)
-	assert.Contains(t, dot, `label="10 W"`)
+	assert.Contains(t, dot, `label="10 W\n "`)
 }
 
 // Parallel links between two nodes become one arrow with their heat
@@ -195,7 +196,7 @@ func TestDOTMergesParallelLinksAndSplitsFixedNodes(t *testing.T) {
 		require.Positive(t, rad)
 		// One arrow from n<i> to its own copy of ambient, labelled with the
 		// sum, its tooltip naming both links.
-		re := regexp.MustCompile(fmt.Sprintf(`"n%d"->"ambient#\d+"\[[^\]]*label="([^"]+) W"[^\]]*tooltip="2 links, [^"]*c%d \(convection\) [^"]*; r%d \(radiation\) [^"]*"`, i, i, i))
+		re := regexp.MustCompile(fmt.Sprintf(`"n%d"->"ambient#\d+"\[[^\]]*label="([^"]+) W \(\d+ %% rad\.\)(?:\\n )?"[^\]]*tooltip="2 links, [^"]*c%d \(convection\) [^"]*; r%d \(radiation\) [^"]*"`, i, i, i))
 		m := re.FindStringSubmatch(dot)
 		require.NotNil(t, m, "n%d: one merged arrow to ambient", i)
 		assert.Equal(t, fmt.Sprintf("%.3g", conv+rad), m[1])

@@ -71,8 +71,9 @@ func Run(o *Options) error {
 			fixed++
 		}
 	}
-	if _, err = fmt.Fprintf(o.IO.Out, "%s: valid: %d nodes (%d fixed), %d unknowns, %d components, %d links\n",
-		o.Model, len(net.Nodes), fixed, net.Unknowns(), len(net.Model.Components), len(net.Links)); err != nil {
+	if _, err = fmt.Fprintf(o.IO.Out, "%s: valid: %s (%d fixed), %s, %s, %s\n",
+		o.Model, count(len(net.Nodes), "node"), fixed, count(net.Unknowns(), "unknown"),
+		count(len(net.Model.Components), "component"), count(len(net.Links), "link")); err != nil {
 		return err
 	}
 	if !o.Jacobian {
@@ -127,4 +128,13 @@ func printWorst(w io.Writer, c *network.JacobianCheck) {
 		}
 		fmt.Fprintln(w)
 	}
+}
+
+// count writes n with a noun in the singular or plural: "1 component",
+// "2 components".
+func count(n int, noun string) string {
+	if n == 1 {
+		return "1 " + noun
+	}
+	return fmt.Sprintf("%d %ss", n, noun)
 }

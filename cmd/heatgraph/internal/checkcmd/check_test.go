@@ -32,3 +32,19 @@ func TestJacobianOnEveryModel(t *testing.T) {
 		}
 	}
 }
+
+func TestCountWords(t *testing.T) {
+	for n, want := range map[int]string{0: "0 components", 1: "1 component", 2: "2 components"} {
+		if got := count(n, "component"); got != want {
+			t.Errorf("count(%d) = %q, want %q", n, got, want)
+		}
+	}
+	var out bytes.Buffer
+	o := &Options{IO: &iostreams.IOStreams{Out: &out, ErrOut: &out}, Model: "../../../../testdata/composite-wall.yaml"}
+	if err := Run(o); err != nil {
+		t.Fatal(err)
+	}
+	if strings.Contains(out.String(), " 1 components") || strings.Contains(out.String(), " 1 links") || strings.Contains(out.String(), " 1 nodes") {
+		t.Errorf("singular counts in the plural: %s", out.String())
+	}
+}

@@ -22,6 +22,15 @@ type Options struct {
 	Model  string
 	Output string // .dot, .gv, .svg or .png
 	Colour string // margin or temperature
+	// LinkLabels names the links in each arrow's label.
+	LinkLabels bool
+	// HideBelow hides arrows carrying less heat: watts ("0.1W") or a
+	// fraction of the largest arrow ("0.02").
+	HideBelow string
+	// Collapse draws these groups as one node each.
+	Collapse []string
+	// Source draws only this source's heat.
+	Source string
 	// Timeout bounds the layout; a larger diagram stops with an error.
 	Timeout time.Duration
 }
@@ -57,6 +66,11 @@ Exit status as for solve; the file is written only when the solve converged.`,
 	}
 	cmd.Flags().StringVarP(&o.Output, "output", "o", "", "diagram file (.dot, .gv, .svg or .png)")
 	cmd.Flags().StringVar(&o.Colour, "colour", string(viz.ColourMargin), "node fill: margin or temperature")
+	cmd.Flags().StringVar(&o.Colour, "color", string(viz.ColourMargin), "the same as --colour")
+	cmd.Flags().BoolVar(&o.LinkLabels, "link-labels", false, "name the links in each arrow's label (they are always in its tooltip)")
+	cmd.Flags().StringVar(&o.HideBelow, "hide-below", "", "hide arrows carrying less heat: watts (0.1W) or a fraction of the largest arrow (0.02)")
+	cmd.Flags().StringSliceVar(&o.Collapse, "collapse", nil, "draw a group (a node's group key) as one node; repeat or separate by commas")
+	cmd.Flags().StringVar(&o.Source, "source", "", "draw only the heat of this source node, along the paths it takes")
 	cmd.Flags().DurationVar(&o.Timeout, "layout-timeout", DefaultTimeout, "give up drawing a diagram whose layout takes longer than this")
 	return cmd
 }
@@ -78,6 +92,10 @@ func Run(o *Options) error {
 		}
 		return exit.With(exit.BadInput, "--colour %q is not a colouring (use %s)", o.Colour, strings.Join(names, ", "))
 	}
+	opt := viz.DiagramOptions{Colouring: colour, LinkLabels: o.LinkLabels, Collapse: o.Collapse, Source: o.Source}
+	if opt.HideBelowW, opt.HideBelowFraction, err = ParseHideBelow(o.HideBelow); err != nil {
+		return &exit.Error{Code: exit.BadInput, Err: err}
+	}
 	out, err := pipeline.Solve(o.Model, solve.Settings{})
 	if err != nil {
 		return err
@@ -85,7 +103,10 @@ func Run(o *Options) error {
 	if out.Solution == nil {
 		return out.NotConverged()
 	}
-	dot, err := viz.DOT(out.Solution, colour)
+	if err := checkNames(out.Solution, opt); err != nil {
+		return &exit.Error{Code: exit.BadInput, Err: err}
+	}
+	dot, err := viz.DOTWith(out.Solution, opt)
 	if err != nil {
 		return exit.With(exit.Internal, "building the diagram: %v", err)
 	}

@@ -14,7 +14,9 @@ import (
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/kindscmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/materialscmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/reportcmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/solvecmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/watchcmd"
 	"github.com/heatgraph/heatgraph/network"
 	"github.com/spf13/cobra"
 )
@@ -47,6 +49,8 @@ codes, product-safety standards and licensed engineering practice.`,
 		solvecmd.NewCmd(ios, nil),
 		checkcmd.NewCmd(ios, nil),
 		graphcmd.NewCmd(ios, nil),
+		reportcmd.NewCmd(ios, nil),
+		watchcmd.NewCmd(ios, nil),
 		materialscmd.NewCmd(ios),
 		kindscmd.NewCmd(ios),
 		historycmd.NewCmd(ios, nil),

@@ -23,6 +23,9 @@ type Options struct {
 	Order   string // node order of the text report
 	Output  string // write the report here instead of standard output
 	Monitor bool   // print each Newton iteration on standard error
+	// Breakdown adds the heat-path breakdown to the text report (JSON
+	// always has it).
+	Breakdown bool
 }
 
 // Formats lists the report formats.
@@ -59,6 +62,7 @@ written or on an internal error.`,
 	cmd.Flags().StringVar(&o.Order, "sort", string(viz.ByFile), "node order in the text report: file, margin, temperature")
 	cmd.Flags().StringVarP(&o.Output, "output", "o", "", "write the report to this file instead of standard output")
 	cmd.Flags().BoolVar(&o.Monitor, "monitor", false, "print each Newton iteration on standard error")
+	cmd.Flags().BoolVar(&o.Breakdown, "breakdown", false, "add where each source's heat goes, its main paths and the links to improve first (text report)")
 	return cmd
 }
 
@@ -100,6 +104,9 @@ func Run(o *Options) error {
 		}
 	default:
 		err = viz.WriteText(&buf, out.Solution, out.Run, viz.Order(o.Order))
+		if err == nil && o.Breakdown {
+			err = viz.WriteBreakdownText(&buf, viz.NewBreakdown(out.Solution))
+		}
 	}
 	if err != nil {
 		return err
