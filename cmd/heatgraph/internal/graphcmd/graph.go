@@ -20,8 +20,9 @@ import (
 type Options struct {
 	IO     *iostreams.IOStreams
 	Model  string
-	Output string // .dot, .gv, .svg or .png
-	Colour string // margin or temperature
+	Set    []string // overrides, PATH=VALUE
+	Output string   // .dot, .gv, .svg or .png
+	Colour string   // margin or temperature
 	// Timeout bounds the layout; a larger diagram stops with an error.
 	Timeout time.Duration
 }
@@ -58,6 +59,7 @@ Exit status as for solve; the file is written only when the solve converged.`,
 	cmd.Flags().StringVarP(&o.Output, "output", "o", "", "diagram file (.dot, .gv, .svg or .png)")
 	cmd.Flags().StringVar(&o.Colour, "colour", string(viz.ColourMargin), "node fill: margin or temperature")
 	cmd.Flags().DurationVar(&o.Timeout, "layout-timeout", DefaultTimeout, "give up drawing a diagram whose layout takes longer than this")
+	cmd.Flags().StringArrayVar(&o.Set, "set", nil, pipeline.SetHelp)
 	return cmd
 }
 
@@ -78,7 +80,7 @@ func Run(o *Options) error {
 		}
 		return exit.With(exit.BadInput, "--colour %q is not a colouring (use %s)", o.Colour, strings.Join(names, ", "))
 	}
-	out, err := pipeline.Solve(o.Model, solve.Settings{})
+	out, err := pipeline.Solve(o.Model, solve.Settings{}, o.Set...)
 	if err != nil {
 		return err
 	}
