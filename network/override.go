@@ -406,14 +406,20 @@ func prefixed(p string, list []string) []string {
 	return out
 }
 
-// Parameter is a number of a model that overrides can address and that
-// the steady temperatures depend on: heat inputs, given temperatures,
-// resistances, link geometry and coefficients, flows, the ambient.
+// Parameter is a number of a model that overrides can address: heat
+// inputs, given temperatures, resistances, link geometry and
+// coefficients, flows, the ambient, and the limits.
 type Parameter struct {
-	Path  string     // as for an Override
+	Path string // as for an Override
+	// Also lists further paths whose value is the same YAML value (one
+	// anchor, several aliases): they change together.
+	Also  []string
 	Kind  units.Kind // its dimension
 	Value float64    // SI
-	Text  string     // as written in the file
+	Text  string     // as written
+	// Verdict marks a value that only judges the temperatures (a limit,
+	// the required margin): the temperatures do not depend on it.
+	Verdict bool
 }
 
 // Format writes an SI value of the parameter's kind as an override value.
@@ -425,10 +431,22 @@ func (p Parameter) Format(v float64) string {
 	return s
 }
 
+// Overrides returns the overrides that set the parameter (every path that
+// shares its value) to the SI value v.
+func (p Parameter) Overrides(v float64) []Override {
+	text := p.Format(v)
+	out := []Override{{p.Path, text}}
+	for _, a := range p.Also {
+		out = append(out, Override{a, text})
+	}
+	return out
+}
+
 // Parameters lists the numeric values of a model file (a valid one: run
-// Parse first) that its steady temperatures depend on, in file order.
-// Limits, margins, heat capacities and counts are left out.
-func Parameters(data []byte) []Parameter {
+// ParseWith first) with the overrides ovs applied, in file order. Values
+// given through one anchor form one parameter. Heat capacities, counts and
+// words are left out.
+func Parameters(data []byte, ovs []Override) []Parameter {
 	docs, err := decodeAll(data)
 	if err != nil || len(docs) == 0 {
 		return nil
@@ -437,38 +455,52 @@ func Parameters(data []byte) []Parameter {
 	if root == nil {
 		return nil
 	}
+	for i, o := range ovs {
+		applyOverride(root, o, -(i + 1))
+	}
 	var out []Parameter
-	add := func(path string, v *yaml.Node, kind units.Kind) {
+	at := map[*yaml.Node]int{}
+	add := func(path string, v *yaml.Node, kind units.Kind, verdict bool) {
 		s := scalar(v)
 		if s == "" {
+			return
+		}
+		if i, ok := at[v]; ok && out[i].Kind == kind {
+			out[i].Also = append(out[i].Also, path)
 			return
 		}
 		x, err := units.Parse(s, kind)
 		if err != nil {
 			return
 		}
-		out = append(out, Parameter{Path: path, Kind: kind, Value: x, Text: s})
+		at[v] = len(out)
+		out = append(out, Parameter{Path: path, Kind: kind, Value: x, Text: s, Verdict: verdict})
 	}
 	if amb := lookup(root, "ambient"); amb != nil {
-		add("ambient.temperature", lookup(amb, "temperature"), units.Temperature)
-		add("ambient.altitude", lookup(amb, "altitude"), units.Length)
-		add("ambient.pressure", lookup(amb, "pressure"), units.Pressure)
+		add("ambient.temperature", lookup(amb, "temperature"), units.Temperature, false)
+		add("ambient.altitude", lookup(amb, "altitude"), units.Length, false)
+		add("ambient.pressure", lookup(amb, "pressure"), units.Pressure, false)
 	}
+	add("required_margin", lookup(root, "required_margin"), units.TemperatureDifference, true)
 	for _, it := range itemsOf(root, "materials") {
-		add("materials."+it.id+".conductivity", lookup(it.node, "conductivity"), units.Conductivity)
+		add("materials."+it.id+".conductivity", lookup(it.node, "conductivity"), units.Conductivity, false)
 	}
 	for _, it := range itemsOf(root, "nodes") {
 		switch NodeKind(scalar(lookup(it.node, "kind"))) {
 		case Solid, "":
-			add("nodes."+it.id+".power", lookup(it.node, "power"), units.Power)
+			add("nodes."+it.id+".power", lookup(it.node, "power"), units.Power, false)
+			add("nodes."+it.id+".limit", lookup(it.node, "limit"), units.Temperature, true)
+		case Air:
+			add("nodes."+it.id+".limit", lookup(it.node, "limit"), units.Temperature, true)
 		case Fixed:
-			add("nodes."+it.id+".temperature", lookup(it.node, "temperature"), units.Temperature)
+			add("nodes."+it.id+".temperature", lookup(it.node, "temperature"), units.Temperature, false)
 		}
 	}
 	for _, it := range itemsOf(root, "components") {
-		add("components."+it.id+".power", lookup(it.node, "power"), units.Power)
-		add("components."+it.id+".r_jc", lookup(it.node, "r_jc"), units.ThermalResistance)
-		add("components."+it.id+".r_jb", lookup(it.node, "r_jb"), units.ThermalResistance)
+		add("components."+it.id+".power", lookup(it.node, "power"), units.Power, false)
+		add("components."+it.id+".r_jc", lookup(it.node, "r_jc"), units.ThermalResistance, false)
+		add("components."+it.id+".r_jb", lookup(it.node, "r_jb"), units.ThermalResistance, false)
+		add("components."+it.id+".limit", lookup(it.node, "limit"), units.Temperature, true)
 	}
 	for _, it := range itemsOf(root, "links") {
 		k := findLinkKind(scalar(lookup(it.node, "kind")))
@@ -479,8 +511,31 @@ func Parameters(data []byte) []Parameter {
 			if key.what != "" {
 				continue
 			}
-			add("links."+it.id+"."+key.name, lookup(it.node, key.name), key.dim)
+			add("links."+it.id+"."+key.name, lookup(it.node, key.name), key.dim, false)
 		}
 	}
 	return out
+}
+
+// ParameterAt returns the parameter at path of a model file with the
+// overrides ovs. A value the file does not give but could (the ambient's
+// altitude or pressure, a solid node's or component's power) is returned
+// with its default; ok is false when path names no numeric value.
+func ParameterAt(data []byte, ovs []Override, path string) (Parameter, bool) {
+	for _, p := range Parameters(data, ovs) {
+		if p.Path == path || contains(p.Also, path) {
+			return p, true
+		}
+	}
+	switch {
+	case path == "ambient.altitude":
+		return Parameter{Path: path, Kind: units.Length}, true
+	case path == "ambient.pressure":
+		return Parameter{Path: path, Kind: units.Pressure, Value: 101325}, true
+	case path == "required_margin":
+		return Parameter{Path: path, Kind: units.TemperatureDifference, Verdict: true}, true
+	case strings.HasSuffix(path, ".power") && (strings.HasPrefix(path, "nodes.") || strings.HasPrefix(path, "components.")):
+		return Parameter{Path: path, Kind: units.Power}, true
+	}
+	return Parameter{}, false
 }

@@ -5,6 +5,8 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/heatgraph/heatgraph/units"
+
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 )
@@ -109,10 +111,10 @@ func TestParametersRoundTrip(t *testing.T) {
 		require.NoError(t, err)
 		base, err := Parse(file, data)
 		require.NoError(t, err)
-		ps := Parameters(data)
+		ps := Parameters(data, nil)
 		require.NotEmpty(t, ps, file)
 		for _, p := range ps {
-			m, err := ParseWith(file, data, []Override{{p.Path, p.Format(p.Value)}})
+			m, err := ParseWith(file, data, p.Overrides(p.Value))
 			require.NoError(t, err, "%s %s", file, p.Path)
 			assert.Equal(t, len(base.Links), len(m.Links))
 			_, err = ParseWith(file, data, []Override{{p.Path, "1 parsec"}})
@@ -133,4 +135,32 @@ func exampleFiles(t *testing.T) []string {
 		}
 	}
 	return out
+}
+
+// Values shared through an anchor are one parameter.
+func TestParametersShareAnchors(t *testing.T) {
+	src := `ambient: {temperature: 20 degC}
+nodes:
+  - {id: a, power: &w 3 W, limit: 90 degC}
+  - {id: b, power: *w}
+links:
+  - {kind: lumped, from: a, to: ambient, resistance: 2 K/W}
+  - {kind: lumped, from: b, to: ambient, resistance: 2 K/W}
+`
+	ps := Parameters([]byte(src), overrides(t, "links.b--ambient.resistance=5 K/W"))
+	require.Len(t, ps, 5)
+	assert.Equal(t, Parameter{Path: "ambient.temperature", Kind: units.Temperature, Value: 293.15, Text: "20 degC"}, ps[0])
+	assert.Equal(t, "nodes.a.power", ps[1].Path)
+	assert.Equal(t, []string{"nodes.b.power"}, ps[1].Also)
+	assert.True(t, ps[2].Verdict)
+	assert.Equal(t, 5.0, ps[4].Value)
+	m, err := ParseWith("box.yaml", []byte(src), ps[1].Overrides(4))
+	require.NoError(t, err)
+	assert.Equal(t, 4.0, m.Nodes[0].Power)
+	assert.Equal(t, 4.0, m.Nodes[1].Power)
+	p, ok := ParameterAt([]byte(src), nil, "ambient.altitude")
+	assert.True(t, ok)
+	assert.Equal(t, units.Length, p.Kind)
+	_, ok = ParameterAt([]byte(src), nil, "links.a--ambient.kind")
+	assert.False(t, ok)
 }

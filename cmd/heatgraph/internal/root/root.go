@@ -13,6 +13,7 @@ import (
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/kindscmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/materialscmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/sensitivitycmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/solvecmd"
 	"github.com/heatgraph/heatgraph/network"
 	"github.com/spf13/cobra"
@@ -48,6 +49,7 @@ codes, product-safety standards and licensed engineering practice.`,
 		graphcmd.NewCmd(ios, nil),
 		materialscmd.NewCmd(ios),
 		kindscmd.NewCmd(ios),
+		sensitivitycmd.NewCmd(ios, nil),
 	)
 	for _, sub := range cmd.Commands() {
 		classify(sub)

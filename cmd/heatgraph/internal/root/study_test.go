@@ -1,0 +1,44 @@
+package root
+
+import (
+	"encoding/json"
+	"testing"
+
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+// T = Ta + P·R for 10 W through 3 K/W: ∂T/∂P = 3 K/W, ∂T/∂R = 10 W,
+// ∂T/∂Ta = 1 (hand calculation).
+func TestSensitivityCommand(t *testing.T) {
+	path := writeModel(t, overLimit)
+	code, out, stderr := run("sensitivity", path)
+	require.Equal(t, exit.OK, code, stderr)
+	assert.Contains(t, out, "chip (solid): 70.00 degC, limit 60.00 degC, margin -10.00 K")
+	assert.Regexp(t, `1 +ambient.temperature +40 degC +1 K/K +\+10 K +\+10 K`, out)
+	assert.Regexp(t, `[23] +nodes.chip.power +10 W +3 K/W +\+10 % +\+3 K`, out)
+	assert.Regexp(t, `[23] +links.chip--ambient.resistance +3 K/W +10 K/\(K/W\) +\+10 % +\+3 K`, out)
+	code, out, stderr = run("sensitivity", path, "--format", "json", "--set", "nodes.chip.power=20W", "--top", "1")
+	require.Equal(t, exit.OK, code, stderr)
+	var doc struct {
+		Outputs []struct {
+			Node    string `json:"node"`
+			Ranking []struct {
+				Path  string  `json:"path"`
+				Slope float64 `json:"dT_dp"`
+			} `json:"ranking"`
+		} `json:"outputs"`
+	}
+	require.NoError(t, json.Unmarshal([]byte(out), &doc))
+	require.Len(t, doc.Outputs, 1)
+	require.Len(t, doc.Outputs[0].Ranking, 1)
+	// 20 W × 10 % × 3 K/W = 6 K < 10 K of ambient; R up 10 %: 20 W × 0.3 K/W = 6 K.
+	assert.Equal(t, "ambient.temperature", doc.Outputs[0].Ranking[0].Path)
+	code, _, stderr = run("sensitivity", path, "--node", "chp")
+	assert.Equal(t, exit.BadInput, code)
+	assert.Contains(t, stderr, `--node "chp": not a node with a limit or a junction (these are: chip)`)
+	code, _, stderr = run("sensitivity", path, "--set", "nodes.chip.power=1 V")
+	assert.Equal(t, exit.BadInput, code)
+	assert.Contains(t, stderr, "--set nodes.chip.power: ")
+}
