@@ -536,6 +536,31 @@ func ParameterAt(data []byte, ovs []Override, path string) (Parameter, bool) {
 		return Parameter{Path: path, Kind: units.TemperatureDifference, Verdict: true}, true
 	case strings.HasSuffix(path, ".power") && (strings.HasPrefix(path, "nodes.") || strings.HasPrefix(path, "components.")):
 		return Parameter{Path: path, Kind: units.Power}, true
+	case strings.HasPrefix(path, "links."):
+		// A key of the link's kind that the file does not give (a
+		// conductance where it gives a resistance).
+		rest := strings.TrimPrefix(path, "links.")
+		dot := strings.LastIndex(rest, ".")
+		docs, err := decodeAll(data)
+		if dot <= 0 || err != nil || len(docs) == 0 || docRoot(docs[0]) == nil {
+			break
+		}
+		root := docRoot(docs[0])
+		for i, o := range ovs {
+			applyOverride(root, o, -(i + 1))
+		}
+		for _, it := range itemsOf(root, "links") {
+			if it.id != rest[:dot] {
+				continue
+			}
+			if k := findLinkKind(scalar(lookup(it.node, "kind"))); k != nil {
+				for _, key := range k.keys {
+					if key.name == rest[dot+1:] && key.what == "" {
+						return Parameter{Path: path, Kind: key.dim}, true
+					}
+				}
+			}
+		}
 	}
 	return Parameter{}, false
 }

@@ -161,6 +161,9 @@ links:
 	p, ok := ParameterAt([]byte(src), nil, "ambient.altitude")
 	assert.True(t, ok)
 	assert.Equal(t, units.Length, p.Kind)
+	p, ok = ParameterAt([]byte(src), nil, "links.a--ambient.conductance")
+	assert.True(t, ok)
+	assert.Equal(t, units.Conductance, p.Kind)
 	_, ok = ParameterAt([]byte(src), nil, "links.a--ambient.kind")
 	assert.False(t, ok)
 }

@@ -13,6 +13,7 @@ import (
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/kindscmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/materialscmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/seekcmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/sensitivitycmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/solvecmd"
 	"github.com/heatgraph/heatgraph/network"
@@ -50,6 +51,7 @@ codes, product-safety standards and licensed engineering practice.`,
 		materialscmd.NewCmd(ios),
 		kindscmd.NewCmd(ios),
 		sensitivitycmd.NewCmd(ios, nil),
+		seekcmd.NewCmd(ios, nil),
 	)
 	for _, sub := range cmd.Commands() {
 		classify(sub)

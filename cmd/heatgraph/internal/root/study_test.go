@@ -42,3 +42,26 @@ func TestSensitivityCommand(t *testing.T) {
 	assert.Equal(t, exit.BadInput, code)
 	assert.Contains(t, stderr, "--set nodes.chip.power: ")
 }
+
+// 10 W through 3 K/W, limit 60 degC: the limit holds up to an ambient of
+// 30 degC (hand calculation).
+func TestSeekCommand(t *testing.T) {
+	path := writeModel(t, overLimit)
+	code, out, stderr := run("seek", path, "--vary", "ambient.temperature", "--from", "0degC", "--to", "50degC", "--tol", "1mK")
+	require.Equal(t, exit.OK, code, stderr)
+	assert.Regexp(t, `highest ambient.temperature at which every node keeps its limit: (29\.999\d|30\.0000) degC \(within`, out)
+	assert.Contains(t, out, "limiting node: chip")
+	code, out, stderr = run("seek", path, "--vary", "nodes.chip.power", "--from", "1W", "--to", "2W", "--format", "json")
+	require.Equal(t, exit.OK, code, stderr)
+	var doc map[string]any
+	require.NoError(t, json.Unmarshal([]byte(out), &doc))
+	assert.Equal(t, "holds", doc["outcome"])
+	code, _, _ = run("seek", path, "--vary", "nodes.chip.power", "--from", "20W", "--to", "30W")
+	assert.Equal(t, exit.LimitExceeded, code)
+	code, _, stderr = run("seek", path, "--vary", "nodes.chip.power", "--from", "20K", "--to", "30W")
+	assert.Equal(t, exit.BadInput, code)
+	assert.Contains(t, stderr, "--from: ")
+	code, _, stderr = run("seek", path, "--vary", "nodes.chip.colour", "--from", "1", "--to", "2")
+	assert.Equal(t, exit.BadInput, code)
+	assert.Contains(t, stderr, "names no numeric value")
+}
