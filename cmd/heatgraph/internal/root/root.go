@@ -13,9 +13,11 @@ import (
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/kindscmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/materialscmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/mergecmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/seekcmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/sensitivitycmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/solvecmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/sweepcmd"
 	"github.com/heatgraph/heatgraph/network"
 	"github.com/spf13/cobra"
 )
@@ -52,6 +54,8 @@ codes, product-safety standards and licensed engineering practice.`,
 		kindscmd.NewCmd(ios),
 		sensitivitycmd.NewCmd(ios, nil),
 		seekcmd.NewCmd(ios, nil),
+		sweepcmd.NewCmd(ios, nil),
+		mergecmd.NewCmd(ios, nil),
 	)
 	for _, sub := range cmd.Commands() {
 		classify(sub)

@@ -2,6 +2,8 @@ package root
 
 import (
 	"encoding/json"
+	"os"
+	"strings"
 	"testing"
 
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
@@ -64,4 +66,33 @@ func TestSeekCommand(t *testing.T) {
 	code, _, stderr = run("seek", path, "--vary", "nodes.chip.colour", "--from", "1", "--to", "2")
 	assert.Equal(t, exit.BadInput, code)
 	assert.Contains(t, stderr, "names no numeric value")
+}
+
+func TestSweepShardsAndMerge(t *testing.T) {
+	dir := t.TempDir()
+	study := examples + "studies/ambient-sweep.yaml"
+	code, whole, stderr := run("sweep", study, "--json", dir+"/s.json", "--plot", dir+"/s.png", "--plot", dir+"/s.svg")
+	require.Equal(t, exit.OK, code, stderr)
+	assert.Equal(t, 19, strings.Count(whole, "\n")) // header + 2 × 9 points
+	for _, f := range []string{"s.json", "s.png", "s.svg"} {
+		data, err := os.ReadFile(dir + "/" + f)
+		require.NoError(t, err)
+		assert.NotEmpty(t, data, f)
+	}
+	var shards []string
+	for _, s := range []string{"0/3", "1/3", "2/3"} {
+		out := dir + "/part" + strings.ReplaceAll(s, "/", "of") + ".csv"
+		code, _, stderr = run("sweep", study, "--shard", s, "-o", out)
+		require.Equal(t, exit.OK, code, stderr)
+		shards = append(shards, out)
+	}
+	code, merged, stderr := run(append([]string{"merge", "--points", "18"}, shards...)...)
+	require.Equal(t, exit.OK, code, stderr)
+	assert.Equal(t, whole, merged)
+	code, _, stderr = run("sweep", study, "--shard", "3/3")
+	assert.Equal(t, exit.BadInput, code)
+	assert.Contains(t, stderr, "expected i/n with 0 ≤ i < n")
+	code, _, stderr = run("merge", "--points", "18", shards[0], shards[2])
+	assert.Equal(t, exit.BadInput, code)
+	assert.Contains(t, stderr, "missing")
 }
