@@ -210,7 +210,7 @@ type Row struct {
 	// point.
 	Margin   []float64
 	Required float64
-	Err    string    // why there is no result (an invalid value, no solution)
+	Err      string // why there is no result (an invalid value, no solution)
 }
 
 // Run solves the model at the points indices of d, in parallel over the
@@ -285,4 +285,3 @@ func IDs(nodes []Node) []string {
 	}
 	return out
 }
-
