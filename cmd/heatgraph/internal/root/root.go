@@ -14,6 +14,7 @@ import (
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/kindscmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/materialscmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/mergecmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/montecarlocmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/seekcmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/sensitivitycmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/solvecmd"
@@ -56,6 +57,7 @@ codes, product-safety standards and licensed engineering practice.`,
 		seekcmd.NewCmd(ios, nil),
 		sweepcmd.NewCmd(ios, nil),
 		mergecmd.NewCmd(ios, nil),
+		montecarlocmd.NewCmd(ios, nil),
 	)
 	for _, sub := range cmd.Commands() {
 		classify(sub)

@@ -3,6 +3,7 @@ package root
 import (
 	"encoding/json"
 	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 
@@ -95,4 +96,42 @@ func TestSweepShardsAndMerge(t *testing.T) {
 	code, _, stderr = run("merge", "--points", "18", shards[0], shards[2])
 	assert.Equal(t, exit.BadInput, code)
 	assert.Contains(t, stderr, "missing")
+}
+
+// Monte Carlo split into shards and merged gives the samples of the whole
+// run byte for byte, and the same summary.
+func TestMonteCarloShards(t *testing.T) {
+	dir := t.TempDir()
+	model, err := filepath.Abs(examples + "outdoor-controller.yaml")
+	require.NoError(t, err)
+	study := filepath.Join(dir, "mc.yaml")
+	require.NoError(t, os.WriteFile(study, []byte(`model: `+model+`
+montecarlo:
+  samples: 40
+  seed: 11
+  vary:
+    - {vary: components.radio.power, triangular: {low: 1.5 W, mode: 1.8 W, high: 2.4 W}}
+    - {vary: ambient.temperature, normal: {sigma: 3 K}}
+`), 0o644))
+	code, summary, stderr := run("montecarlo", study, "-o", dir+"/all.csv", "--json", dir+"/all.json")
+	require.Equal(t, exit.OK, code, stderr)
+	assert.Contains(t, summary, "40 samples (seed 11), 0 without a solution")
+	assert.Regexp(t, `radio +\d+\.\d\d +\d\.\d+ +`, summary)
+	var parts []string
+	for _, s := range []string{"0/4", "1/4", "2/4", "3/4"} {
+		out := filepath.Join(dir, "p"+s[:1]+".csv")
+		code, _, stderr = run("montecarlo", study, "--shard", s, "-o", out)
+		require.Equal(t, exit.OK, code, stderr)
+		parts = append(parts, out)
+	}
+	code, _, stderr = run(append([]string{"merge", "--points", "40", "-o", dir + "/merged.csv"}, parts...)...)
+	require.Equal(t, exit.OK, code, stderr)
+	whole, err := os.ReadFile(dir + "/all.csv")
+	require.NoError(t, err)
+	merged, err := os.ReadFile(dir + "/merged.csv")
+	require.NoError(t, err)
+	assert.Equal(t, string(whole), string(merged))
+	code, again, stderr := run("montecarlo", study, "--table", dir+"/merged.csv")
+	require.Equal(t, exit.OK, code, stderr)
+	assert.Equal(t, summary, again)
 }
