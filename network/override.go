@@ -80,8 +80,12 @@ func LoadWith(path string, ovs []Override) (*Network, error) {
 }
 
 // ParseWith reads a model from data with overrides applied; file names it
-// in messages.
+// in messages. A variant (a file with base:, see parseVariant) is read
+// as its base with its changes.
 func ParseWith(file string, data []byte, ovs []Override) (*Model, error) {
+	if isVariant(data) {
+		return parseVariant(file, data, ovs)
+	}
 	if len(ovs) == 0 {
 		return Parse(file, data)
 	}
@@ -446,17 +450,10 @@ func (p Parameter) Overrides(v float64) []Override {
 // ParseWith first) with the overrides ovs applied, in file order. Values
 // given through one anchor form one parameter. Heat capacities, counts and
 // words are left out.
-func Parameters(data []byte, ovs []Override) []Parameter {
-	docs, err := decodeAll(data)
-	if err != nil || len(docs) == 0 {
-		return nil
-	}
-	root := docRoot(docs[0])
+func Parameters(file string, data []byte, ovs []Override) []Parameter {
+	root := treeOf(file, data, ovs)
 	if root == nil {
 		return nil
-	}
-	for i, o := range ovs {
-		applyOverride(root, o, -(i + 1))
 	}
 	var out []Parameter
 	at := map[*yaml.Node]int{}
@@ -517,12 +514,37 @@ func Parameters(data []byte, ovs []Override) []Parameter {
 	return out
 }
 
+// treeOf returns the top mapping of a model file (file, data), or of a
+// variant's base with its changes, with the overrides ovs applied; nil
+// when it cannot be read.
+func treeOf(file string, data []byte, ovs []Override) *yaml.Node {
+	var root *yaml.Node
+	if isVariant(data) {
+		v, ps := prepareVariant(file, data, ovs)
+		if ps != nil {
+			return nil
+		}
+		return v.tree()
+	}
+	docs, err := decodeAll(data)
+	if err != nil || len(docs) == 0 {
+		return nil
+	}
+	if root = docRoot(docs[0]); root == nil {
+		return nil
+	}
+	for i, o := range ovs {
+		applyOverride(root, o, -(i + 1))
+	}
+	return root
+}
+
 // ParameterAt returns the parameter at path of a model file with the
 // overrides ovs. A value the file does not give but could (the ambient's
 // altitude or pressure, a solid node's or component's power) is returned
 // with its default; ok is false when path names no numeric value.
-func ParameterAt(data []byte, ovs []Override, path string) (Parameter, bool) {
-	for _, p := range Parameters(data, ovs) {
+func ParameterAt(file string, data []byte, ovs []Override, path string) (Parameter, bool) {
+	for _, p := range Parameters(file, data, ovs) {
 		if p.Path == path || contains(p.Also, path) {
 			return p, true
 		}
@@ -541,13 +563,9 @@ func ParameterAt(data []byte, ovs []Override, path string) (Parameter, bool) {
 		// conductance where it gives a resistance).
 		rest := strings.TrimPrefix(path, "links.")
 		dot := strings.LastIndex(rest, ".")
-		docs, err := decodeAll(data)
-		if dot <= 0 || err != nil || len(docs) == 0 || docRoot(docs[0]) == nil {
+		root := treeOf(file, data, ovs)
+		if dot <= 0 || root == nil {
 			break
-		}
-		root := docRoot(docs[0])
-		for i, o := range ovs {
-			applyOverride(root, o, -(i + 1))
 		}
 		for _, it := range itemsOf(root, "links") {
 			if it.id != rest[:dot] {

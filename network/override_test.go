@@ -111,7 +111,7 @@ func TestParametersRoundTrip(t *testing.T) {
 		require.NoError(t, err)
 		base, err := Parse(file, data)
 		require.NoError(t, err)
-		ps := Parameters(data, nil)
+		ps := Parameters(file, data, nil)
 		require.NotEmpty(t, ps, file)
 		for _, p := range ps {
 			m, err := ParseWith(file, data, p.Overrides(p.Value))
@@ -147,7 +147,7 @@ links:
   - {kind: lumped, from: a, to: ambient, resistance: 2 K/W}
   - {kind: lumped, from: b, to: ambient, resistance: 2 K/W}
 `
-	ps := Parameters([]byte(src), overrides(t, "links.b--ambient.resistance=5 K/W"))
+	ps := Parameters("box.yaml", []byte(src), overrides(t, "links.b--ambient.resistance=5 K/W"))
 	require.Len(t, ps, 5)
 	assert.Equal(t, Parameter{Path: "ambient.temperature", Kind: units.Temperature, Value: 293.15, Text: "20 degC"}, ps[0])
 	assert.Equal(t, "nodes.a.power", ps[1].Path)
@@ -158,12 +158,12 @@ links:
 	require.NoError(t, err)
 	assert.Equal(t, 4.0, m.Nodes[0].Power)
 	assert.Equal(t, 4.0, m.Nodes[1].Power)
-	p, ok := ParameterAt([]byte(src), nil, "ambient.altitude")
+	p, ok := ParameterAt("box.yaml", []byte(src), nil, "ambient.altitude")
 	assert.True(t, ok)
 	assert.Equal(t, units.Length, p.Kind)
-	p, ok = ParameterAt([]byte(src), nil, "links.a--ambient.conductance")
+	p, ok = ParameterAt("box.yaml", []byte(src), nil, "links.a--ambient.conductance")
 	assert.True(t, ok)
 	assert.Equal(t, units.Conductance, p.Kind)
-	_, ok = ParameterAt([]byte(src), nil, "links.a--ambient.kind")
+	_, ok = ParameterAt("box.yaml", []byte(src), nil, "links.a--ambient.kind")
 	assert.False(t, ok)
 }

@@ -37,11 +37,11 @@ func Open(file string, set []network.Override) (*Model, error) {
 }
 
 // Parameters lists the model's numeric values with the overrides applied.
-func (m *Model) Parameters() []network.Parameter { return network.Parameters(m.Data, m.Set) }
+func (m *Model) Parameters() []network.Parameter { return network.Parameters(m.File, m.Data, m.Set) }
 
 // Parameter returns the parameter at path (see network.ParameterAt).
 func (m *Model) Parameter(path string) (network.Parameter, error) {
-	p, ok := network.ParameterAt(m.Data, m.Set, path)
+	p, ok := network.ParameterAt(m.File, m.Data, m.Set, path)
 	if !ok {
 		return p, fmt.Errorf("%s names no numeric value of the model (a path as for --set, e.g. ambient.temperature, nodes.ID.power, links.ID.flow)", path)
 	}

@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/checkcmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/comparecmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/graphcmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
@@ -58,6 +59,7 @@ codes, product-safety standards and licensed engineering practice.`,
 		sweepcmd.NewCmd(ios, nil),
 		mergecmd.NewCmd(ios, nil),
 		montecarlocmd.NewCmd(ios, nil),
+		comparecmd.NewCmd(ios, nil),
 	)
 	for _, sub := range cmd.Commands() {
 		classify(sub)

@@ -135,3 +135,28 @@ montecarlo:
 	require.Equal(t, exit.OK, code, stderr)
 	assert.Equal(t, summary, again)
 }
+
+// A variant of the 10 W, 3 K/W chip at 5 W runs 15 K cooler (hand
+// calculation); with a second chip added, the table has its row.
+func TestCompareVariants(t *testing.T) {
+	base := writeModel(t, overLimit)
+	variant := filepath.Join(filepath.Dir(base), "half.yaml")
+	require.NoError(t, os.WriteFile(variant, []byte(`base: model.yaml
+title: half the power
+set: {nodes.chip.power: 5 W}
+add:
+  nodes: [{id: chip2, power: 1 W, limit: 50 degC}]
+  links: [{kind: lumped, from: chip2, to: ambient, resistance: 2 K/W}]
+`), 0o644))
+	code, out, stderr := run("compare", base, variant, "--format", "csv")
+	assert.Equal(t, exit.LimitExceeded, code, stderr) // the base is over its limit
+	assert.Equal(t, "node,T1_degC,margin1_K,T2_degC,margin2_K,dT2_K\n"+
+		"chip,70,-10,55,5,-15\n"+
+		"chip2,,,42,8,\n", out)
+	code, out, stderr = run("compare", base, variant, "--set", "ambient.temperature=20degC")
+	assert.Equal(t, exit.OK, code, stderr)
+	assert.Contains(t, out, "[2] half the power")
+	assert.Regexp(t, `chip +50\.00 +\+10\.00 +35\.00 +\+25\.00 +-15\.00`, out)
+	code, _, stderr = run("compare", base)
+	assert.Equal(t, exit.BadInput, code)
+}
