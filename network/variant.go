@@ -233,4 +233,3 @@ func removeItem(root *yaml.Node, path string) string {
 	}
 	return fmt.Sprintf("the base has no %s %q%s (%s: %s)", strings.TrimSuffix(section, "s"), id, suggest(id, ids), section, strings.Join(ids, ", "))
 }
-
