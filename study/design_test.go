@@ -81,3 +81,20 @@ func mustParam(t *testing.T, m *Model, path string) network.Parameter {
 	require.NoError(t, err)
 	return q
 }
+
+func TestParseAxis(t *testing.T) {
+	m := linearModel(t, nil)
+	ax, err := m.ParseAxis("ambient.temperature=20degC:30degC:5K")
+	require.NoError(t, err)
+	assert.InDeltaSlice(t, []float64{293.15, 298.15, 303.15}, ax.Values, 1e-9)
+	ax, err = m.ParseAxis("nodes.chip.power=1W:100W:3log")
+	require.NoError(t, err)
+	assert.InDeltaSlice(t, []float64{1, 10, 100}, ax.Values, 1e-12)
+	ax, err = m.ParseAxis("links.chip--ambient.resistance=1K/W, 2 K/W")
+	require.NoError(t, err)
+	assert.Equal(t, []float64{1, 2}, ax.Values)
+	_, err = m.ParseAxis("nodes.chip.power=1V,2W")
+	assert.ErrorContains(t, err, `--vary nodes.chip.power: unknown unit "V"`)
+	_, err = m.ParseAxis("nodes.chip.power")
+	assert.ErrorContains(t, err, "expected PATH=")
+}

@@ -160,3 +160,23 @@ add:
 	code, _, stderr = run("compare", base)
 	assert.Equal(t, exit.BadInput, code)
 }
+
+// A sweep from flags: 10 W through 3 K/W at ambients of 20, 30, 40 degC
+// gives 50, 60, 70 degC (hand calculation); a point whose value the
+// model refuses is a failed row.
+func TestSweepFromFlags(t *testing.T) {
+	path := writeModel(t, overLimit)
+	png := filepath.Join(t.TempDir(), "p.png")
+	code, out, stderr := run("sweep", path, "--vary", "ambient.temperature=20degC:40degC:10K", "--plot", png, "--plot-node", "chip")
+	require.Equal(t, exit.OK, code, stderr)
+	assert.Equal(t, "point,ambient.temperature_K,chip_degC,chip_margin_K,worst_node,worst_slack_K,status,error\n"+
+		"0,293.15,50,10,chip,10,ok,\n1,303.15,60,0,chip,0,ok,\n2,313.15,70,-10,chip,-10,over,\n", out)
+	_, err := os.Stat(png)
+	assert.NoError(t, err)
+	code, out, stderr = run("sweep", path, "--vary", "nodes.chip.power=5W,-2MW")
+	require.Equal(t, exit.OK, code, stderr)
+	assert.Contains(t, out, `1,-2e+06,,,,,failed,"--set nodes.chip.power: ""-2e+06 W"" is outside the range`)
+	code, _, stderr = run("sweep", path, "--vary", "nodes.chip.power=5V")
+	assert.Equal(t, exit.BadInput, code)
+	assert.Contains(t, stderr, `unknown unit "V"`)
+}

@@ -30,13 +30,18 @@ type Options struct {
 	JSON   string   // JSON document
 	Plot   []string // PNG or SVG plots
 	Shard  string   // "i/n"
+	// Vary, when given, makes Study a model file swept over these values
+	// (PATH=VALUES, see study.ParseAxis) instead of a study file.
+	Vary      []string
+	PlotX     string
+	PlotNodes []string
 }
 
 // NewCmd returns the sweep command.
 func NewCmd(ios *iostreams.IOStreams, runF func(*Options) error) *cobra.Command {
 	o := &Options{IO: ios}
 	cmd := &cobra.Command{
-		Use:   "sweep STUDY",
+		Use:   "sweep STUDY | sweep MODEL --vary PATH=VALUES...",
 		Short: "Solve a model over a range or grid of values (a study file)",
 		Long: `Solve the model of a study file at every point of its sweep: one or more
 values, each given as a list or a range (from, to, and a step or a count,
@@ -45,6 +50,11 @@ parallel over the cores. The table has one row per point: the values,
 every node's temperature, every limited node's margin, the worst node and
 the status. See the README for the study file.
 
+Without a study file: give a model and one --vary per swept value,
+PATH=FROM:TO:STEP (20degC:60degC:5K), PATH=FROM:TO:COUNT (1W:10W:10, or
+10log for geometric spacing) or PATH=V1,V2,...; --plot-x and --plot-node
+choose what --plot draws.
+
 --shard i/n runs only the points whose index is i modulo n (0 ≤ i < n);
 'heatgraph merge' joins the tables of the shards into the table of the
 whole study, byte for byte.
@@ -52,8 +62,9 @@ whole study, byte for byte.
 Exit status: 0, 2 for an invalid study, model or command line, 4 when a
 result could not be written. Points without a solution are rows with
 status "failed" and the reason.`,
-		Example: "  heatgraph sweep examples/studies/ambient-sweep.yaml -o sweep.csv --plot sweep.svg",
-		Args:    cobra.ExactArgs(1),
+		Example: "  heatgraph sweep examples/studies/ambient-sweep.yaml -o sweep.csv --plot sweep.svg\n" +
+			"  heatgraph sweep examples/bench-logger.yaml --vary ambient.temperature=15degC:45degC:5K --vary components.fpga.power=4W,6W,8W",
+		Args: cobra.ExactArgs(1),
 		RunE: func(_ *cobra.Command, args []string) error {
 			o.Study = args[0]
 			if runF != nil {
@@ -66,6 +77,9 @@ status "failed" and the reason.`,
 	cmd.Flags().StringVarP(&o.Output, "output", "o", "", "write the CSV table to this file instead of standard output")
 	cmd.Flags().StringVar(&o.JSON, "json", "", "also write the results as JSON to this file")
 	cmd.Flags().StringArrayVar(&o.Plot, "plot", nil, "draw the plotted nodes against the plot's x value to this .png or .svg file (repeatable)")
+	cmd.Flags().StringArrayVar(&o.Vary, "vary", nil, "sweep the model given instead of a study file over PATH=FROM:TO:STEP, PATH=FROM:TO:COUNT[log] or PATH=V1,V2,... (repeatable: a grid)")
+	cmd.Flags().StringVar(&o.PlotX, "plot-x", "", "with --vary: the value on the plots' x axis (default: the first)")
+	cmd.Flags().StringArrayVar(&o.PlotNodes, "plot-node", nil, "with --vary: a node to plot (repeatable; default: every node with a limit)")
 	cmd.Flags().StringVar(&o.Shard, "shard", "", "run shard i of n, i/n with 0 ≤ i < n: the points whose index is i modulo n")
 	return cmd
 }
@@ -135,9 +149,46 @@ func Emit(ios *iostreams.IOStreams, path string, data []byte, inputs ...string) 
 	return nil
 }
 
+// fromFlags makes a study of the model o.Study swept over o.Vary.
+func fromFlags(o *Options) (*study.Study, error) {
+	ovs, err := network.ParseOverrides(o.Set)
+	if err != nil {
+		return nil, &exit.Error{Code: exit.BadInput, Err: err}
+	}
+	m, err := study.Open(o.Study, ovs)
+	if err != nil {
+		var ps network.Problems
+		if errors.As(err, &ps) {
+			return nil, &exit.Error{Code: exit.BadInput, Err: ps}
+		}
+		return nil, exit.With(exit.BadInput, "%s: %v", o.Study, err)
+	}
+	st := &study.Study{File: o.Study, Model: m, PlotX: o.PlotX, PlotNodes: o.PlotNodes}
+	for _, v := range o.Vary {
+		ax, err := m.ParseAxis(v)
+		if err != nil {
+			return nil, exit.With(exit.BadInput, "%v", err)
+		}
+		st.Grid = append(st.Grid, ax)
+	}
+	if st.Grid.Len() > 10_000_000 {
+		return nil, exit.With(exit.BadInput, "--vary: %d points is more than ten million", st.Grid.Len())
+	}
+	return st, nil
+}
+
 // Run runs the sweep and writes its outputs.
 func Run(o *Options) error {
-	st, err := ReadStudy(o.Study, o.Set)
+	var st *study.Study
+	var err error
+	if len(o.Vary) > 0 {
+		st, err = fromFlags(o)
+	} else {
+		if o.PlotX != "" || len(o.PlotNodes) > 0 {
+			return exit.With(exit.BadInput, "--plot-x and --plot-node go with --vary; a study file says what to plot under plot:")
+		}
+		st, err = ReadStudy(o.Study, o.Set)
+	}
 	if err != nil {
 		return err
 	}
@@ -153,7 +204,10 @@ func Run(o *Options) error {
 	if err != nil {
 		return err
 	}
-	inputs := []string{o.Study, st.Model.File}
+	inputs := []string{o.Study}
+	if st.Model.File != o.Study {
+		inputs = append(inputs, st.Model.File)
+	}
 	params := st.Grid.Params()
 	var buf bytes.Buffer
 	if err := study.WriteCSV(&buf, params, nodes, rows); err != nil {
