@@ -104,7 +104,7 @@ func ParseWith(file string, data []byte, ovs []Override) (*Model, error) {
 	m, err := parseHooked(file, data, hook)
 	if len(refused) > 0 {
 		if ps, ok := err.(Problems); ok {
-			refused = append(refused, ps...)
+			refused = append(refused, relabel(ps, ovs)...)
 		}
 		return nil, refused
 	}

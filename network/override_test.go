@@ -99,7 +99,11 @@ func TestOverrideProblems(t *testing.T) {
 			assert.True(t, strings.HasPrefix(err.Error(), c.want), "%s: %s", c.set, err)
 		}
 	}
-	_, err := ParseOverride("nodes.board.power")
+	// An unknown path and a bad value: both name their override.
+	_, err := ReadFileWith("../examples/outdoor-controller.yaml", overrides(t, "nodes.bord.power=1W", "nodes.board.power=1V"))
+	assert.ErrorContains(t, err, "--set nodes.bord.power: no node \"bord\"")
+	assert.ErrorContains(t, err, "--set nodes.board.power: unknown unit \"V\"")
+	_, err = ParseOverride("nodes.board.power")
 	assert.ErrorContains(t, err, "expected PATH=VALUE")
 }
 

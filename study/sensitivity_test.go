@@ -14,6 +14,9 @@ func examples(t *testing.T) []string {
 	t.Helper()
 	files, err := filepath.Glob("../examples/*.yaml")
 	require.NoError(t, err)
+	variants, err := filepath.Glob("../examples/variants/*.yaml")
+	require.NoError(t, err)
+	files = append(files, variants...)
 	require.NotEmpty(t, files)
 	return files
 }
