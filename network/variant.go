@@ -1,6 +1,7 @@
 package network
 
 import (
+	"bytes"
 	"fmt"
 	"path/filepath"
 	"sort"
@@ -33,6 +34,9 @@ const variantLine = 1 << 30
 
 // isVariant reports whether data is a variant (its top level has base:).
 func isVariant(data []byte) bool {
+	if !bytes.Contains(data, []byte("base")) {
+		return false // the common case, without decoding the file twice
+	}
 	var doc yaml.Node
 	if yaml.Unmarshal(data, &doc) != nil {
 		return false

@@ -29,6 +29,9 @@ func Open(file string, set []network.Override) (*Model, error) {
 	if err != nil {
 		return nil, err
 	}
+	if len(data) > network.MaxFileSize {
+		return nil, fmt.Errorf("%s is larger than the %d MiB limit for a model file", file, network.MaxFileSize>>20)
+	}
 	m := &Model{File: file, Data: data, Set: set}
 	if _, err := network.ParseWith(file, data, set); err != nil {
 		return nil, err
