@@ -2,6 +2,7 @@ package root
 
 import (
 	"encoding/json"
+	"image/png"
 	"os"
 	"path/filepath"
 	"strings"
@@ -75,11 +76,27 @@ func TestSweepShardsAndMerge(t *testing.T) {
 	code, whole, stderr := run("sweep", study, "--json", dir+"/s.json", "--plot", dir+"/s.png", "--plot", dir+"/s.svg")
 	require.Equal(t, exit.OK, code, stderr)
 	assert.Equal(t, 19, strings.Count(whole, "\n")) // header + 2 × 9 points
-	for _, f := range []string{"s.json", "s.png", "s.svg"} {
-		data, err := os.ReadFile(dir + "/" + f)
-		require.NoError(t, err)
-		assert.NotEmpty(t, data, f)
+	f, err := os.Open(dir + "/s.png")
+	require.NoError(t, err)
+	img, err := png.Decode(f)
+	f.Close()
+	require.NoError(t, err)
+	assert.Greater(t, img.Bounds().Dx(), 400)
+	svg, err := os.ReadFile(dir + "/s.svg")
+	require.NoError(t, err)
+	assert.Contains(t, string(svg), "<svg")
+	assert.Contains(t, string(svg), "radio limit")
+	var doc struct {
+		Points []struct {
+			Point  int    `json:"point"`
+			Status string `json:"status"`
+		} `json:"points"`
 	}
+	data, err := os.ReadFile(dir + "/s.json")
+	require.NoError(t, err)
+	require.NoError(t, json.Unmarshal(data, &doc))
+	assert.Len(t, doc.Points, 18)
+	assert.Equal(t, 17, doc.Points[17].Point)
 	var shards []string
 	for _, s := range []string{"0/3", "1/3", "2/3"} {
 		out := dir + "/part" + strings.ReplaceAll(s, "/", "of") + ".csv"
