@@ -5,6 +5,8 @@ import (
 	"math"
 	"testing"
 
+	"github.com/heatgraph/heatgraph/network"
+
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 )
@@ -66,4 +68,32 @@ func TestWilson(t *testing.T) {
 	assert.InDelta(t, 0.2775, hi, 1e-4)
 	assert.Equal(t, 2.5, Percentile([]float64{1, 2, 3, 4}, 50))
 	assert.Equal(t, 1.15, math.Round(Percentile([]float64{1, 2, 3, 4}, 5)*1e12)/1e12)
+}
+
+// With a normal ambient (σ 2 K) and a normal power (σ 0.5 W through
+// 3 K/W), T is normal with mean 70 degC and σ = √(2² + 1.5²) = 2.5 K; the
+// chance of exceeding a limit of 73 degC is 1 − Φ(1.2) = 0.11507 (normal
+// table, e.g. Abramowitz & Stegun, Table 26.1). The 95 % Wilson interval
+// of 4000 samples holds it (one run, fixed seed: such an interval misses
+// one time in twenty).
+func TestMonteCarloExceedance(t *testing.T) {
+	m := modelFrom(t, linear, []network.Override{{Path: "nodes.chip.limit", Value: "73 degC"}})
+	d := Sampling{Samples: 4000, Seed: 1, Dists: []Distribution{
+		{Param: mustParam(t, m, "ambient.temperature"), Kind: "normal", Mean: 313.15, Sigma: 2},
+		{Param: mustParam(t, m, "nodes.chip.power"), Kind: "normal", Mean: 10, Sigma: 0.5},
+	}}
+	nodes, _, err := m.Nodes()
+	require.NoError(t, err)
+	stats, _ := Summarize(nodes, m.Run(d, All(d.Len()), IDs(nodes), nil))
+	s := stats[0]
+	assert.LessOrEqual(t, s.Lower, 0.11507)
+	assert.GreaterOrEqual(t, s.Higher, 0.11507)
+	assert.Less(t, s.Higher-s.Lower, 0.02)
+	// The 5th and 95th percentiles of a normal law: mean ∓ 1.6449σ, within
+	// 4 standard errors of a sample quantile, √(p(1−p)/n)/f(x_p) =
+	// √(0.05·0.95/4000)/(φ(1.6449)/σ) = 0.0835 K (asymptotic normality of
+	// sample quantiles).
+	assert.InDelta(t, 343.15-1.6449*2.5, s.P5, 4*0.0835)
+	assert.InDelta(t, 343.15+1.6449*2.5, s.P95, 4*0.0835)
+	t.Logf("P(over) = %.4f, Wilson 95 %%: %.4f – %.4f", s.Probability, s.Lower, s.Higher)
 }
