@@ -18,7 +18,11 @@ const FormatVersion = 1
 var topKeys = []string{"heatgraph", "title", "ambient", "required_margin", "materials", "nodes", "components", "links", "enclosures", "shared"}
 
 // Parse reads a model from data; file names it in messages.
-func Parse(file string, data []byte) (*Model, error) {
+func Parse(file string, data []byte) (*Model, error) { return parseHooked(file, data, nil) }
+
+// parseHooked is Parse; hook, when not nil, may change the YAML document
+// before it is read (see ParseWith).
+func parseHooked(file string, data []byte, hook func(doc *yaml.Node)) (*Model, error) {
 	r := &reader{file: file, budget: len(data)/2 + 100000}
 	m := &Model{File: file, Materials: BuiltinMaterials()}
 	if line, msg := checkText(data); msg != "" {
@@ -41,6 +45,9 @@ func Parse(file string, data []byte) (*Model, error) {
 	}
 	if len(docs) > 1 {
 		r.addf(docs[1], "syntax", "%s", secondDocument)
+	}
+	if hook != nil {
+		hook(docs[0])
 	}
 	top := r.newObject(docs[0].Content[0], "")
 	if top == nil {

@@ -165,6 +165,10 @@ func (p *parser) factor() ([]term, error) {
 			return nil, &unknownUnitError{name}
 		}
 		terms = []term{{sym: sym, prefix: prefix, exp: 1}}
+	case r == '1' && p.unityBeforeSlash():
+		// "1/s", "1/K": the unity a reciprocal unit is written with.
+		p.pos++
+		return nil, nil
 	case r == eof:
 		return nil, syntaxErrorf("a unit is missing at the end")
 	default:
@@ -178,6 +182,16 @@ func (p *parser) factor() ([]term, error) {
 		terms[i].exp *= n
 	}
 	return terms, nil
+}
+
+// unityBeforeSlash reports whether the input at p is a lone "1" followed,
+// after any spaces, by "/".
+func (p *parser) unityBeforeSlash() bool {
+	i := p.pos + 1
+	for i < len(p.src) && unicode.IsSpace(p.src[i]) {
+		i++
+	}
+	return i < len(p.src) && p.src[i] == '/'
 }
 
 // isSymbolRune reports whether r can be part of a unit symbol.

@@ -544,3 +544,26 @@ func TestDimensionString(t *testing.T) {
 		}
 	}
 }
+
+// Reciprocal units are written with a unity: "1/s" (the SI unit of a
+// rotational speed in revolutions per second), "1/K" (NIST SP 811 §6.1.6
+// writes such units as s⁻¹, K⁻¹).
+func TestReciprocalUnits(t *testing.T) {
+	for _, c := range []struct {
+		in   string
+		kind Kind
+		want float64
+	}{
+		{"100 1/s", RotationalSpeed, 100},
+		{"6000 rpm", RotationalSpeed, 100},
+		{"50 1 / s", RotationalSpeed, 50},
+	} {
+		got, err := Parse(c.in, c.kind)
+		if err != nil || math.Abs(got-c.want) > 1e-12*c.want {
+			t.Errorf("%q: %v, %v; want %g", c.in, got, err, c.want)
+		}
+	}
+	if _, err := Parse("100 1", RotationalSpeed); err == nil {
+		t.Error(`"100 1" must not read as a speed`)
+	}
+}

@@ -17,6 +17,7 @@ import (
 type Options struct {
 	IO    *iostreams.IOStreams
 	Model string
+	Set   []string // overrides, PATH=VALUE
 	// Jacobian compares the assembled Jacobian with finite differences at
 	// the start and at the solution.
 	Jacobian bool
@@ -56,12 +57,13 @@ largest entry of its column) is a defect in heatgraph: exit status 70.`,
 	cmd.Flags().BoolVar(&o.Jacobian, "jacobian", false, "compare the Jacobian with finite differences at the start and at the solution")
 	cmd.Flags().Float64Var(&o.Tolerance, "tolerance", network.DefaultJacobianTolerance, "largest relative error accepted by --jacobian")
 	cmd.Flags().IntVar(&o.Worst, "worst", 5, "how many of the worst Jacobian entries to print")
+	cmd.Flags().StringArrayVar(&o.Set, "set", nil, pipeline.SetHelp)
 	return cmd
 }
 
 // Run checks the model and prints a one-line summary when it is valid.
 func Run(o *Options) error {
-	net, err := pipeline.Load(o.Model)
+	net, err := pipeline.Load(o.Model, o.Set...)
 	if err != nil {
 		return err
 	}

@@ -20,8 +20,9 @@ import (
 type Options struct {
 	IO     *iostreams.IOStreams
 	Model  string
-	Output string // .dot, .gv, .svg or .png
-	Colour string // margin or temperature
+	Set    []string // overrides, PATH=VALUE
+	Output string   // .dot, .gv, .svg or .png
+	Colour string   // margin or temperature
 	// LinkLabels names the links in each arrow's label.
 	LinkLabels bool
 	// HideBelow hides arrows carrying less heat: watts ("0.1W") or a
@@ -72,6 +73,7 @@ Exit status as for solve; the file is written only when the solve converged.`,
 	cmd.Flags().StringSliceVar(&o.Collapse, "collapse", nil, "draw a group (a node's group key) as one node; repeat or separate by commas")
 	cmd.Flags().StringVar(&o.Source, "source", "", "draw only the heat of this source node, along the paths it takes")
 	cmd.Flags().DurationVar(&o.Timeout, "layout-timeout", DefaultTimeout, "give up drawing a diagram whose layout takes longer than this")
+	cmd.Flags().StringArrayVar(&o.Set, "set", nil, pipeline.SetHelp)
 	return cmd
 }
 
@@ -96,7 +98,7 @@ func Run(o *Options) error {
 	if opt.HideBelowW, opt.HideBelowFraction, err = ParseHideBelow(o.HideBelow); err != nil {
 		return &exit.Error{Code: exit.BadInput, Err: err}
 	}
-	out, err := pipeline.Solve(o.Model, solve.Settings{})
+	out, err := pipeline.Solve(o.Model, solve.Settings{}, o.Set...)
 	if err != nil {
 		return err
 	}

@@ -27,10 +27,15 @@ type Outcome struct {
 	Solution *network.Solution // nil unless the solve converged
 }
 
-// Load reads, checks and assembles a model, turning invalid input into an
+// Load reads, checks and assembles a model with the overrides sets
+// ("PATH=VALUE", see network.Override), turning invalid input into an
 // exit.Error with code BadInput whose message lists every problem.
-func Load(path string) (*network.Network, error) {
-	net, err := network.Load(path)
+func Load(path string, sets ...string) (*network.Network, error) {
+	ovs, err := network.ParseOverrides(sets)
+	if err != nil {
+		return nil, &exit.Error{Code: exit.BadInput, Err: err}
+	}
+	net, err := network.LoadWith(path, ovs)
 	if err != nil {
 		var ps network.Problems
 		if errors.As(err, &ps) {
@@ -41,9 +46,10 @@ func Load(path string) (*network.Network, error) {
 	return net, nil
 }
 
-// Solve loads a model and solves it for the steady state.
-func Solve(path string, settings solve.Settings) (*Outcome, error) {
-	net, err := Load(path)
+// Solve loads a model with the overrides sets and solves it for the
+// steady state.
+func Solve(path string, settings solve.Settings, sets ...string) (*Outcome, error) {
+	net, err := Load(path, sets...)
 	if err != nil {
 		return nil, err
 	}
@@ -55,6 +61,10 @@ func Solve(path string, settings solve.Settings) (*Outcome, error) {
 	}
 	return out, nil
 }
+
+// SetHelp is the help of the --set option every command that reads a model
+// has.
+const SetHelp = "change a value of the model, PATH=VALUE (repeatable): ambient.temperature=45degC, nodes.cpu.power=7W, components.soc.r_jc=0.5K/W, links.fins.flow=20CFM"
 
 // RunOf describes a solve of p for the reports: the worst equation and
 // the convergence of each kind of unknown the model has.

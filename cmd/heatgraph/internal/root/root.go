@@ -8,14 +8,20 @@ import (
 	"strings"
 
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/checkcmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/comparecmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/graphcmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/historycmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/kindscmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/materialscmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/mergecmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/montecarlocmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/reportcmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/seekcmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/sensitivitycmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/solvecmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/sweepcmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/watchcmd"
 	"github.com/heatgraph/heatgraph/network"
 	"github.com/spf13/cobra"
@@ -54,6 +60,12 @@ codes, product-safety standards and licensed engineering practice.`,
 		materialscmd.NewCmd(ios),
 		kindscmd.NewCmd(ios),
 		historycmd.NewCmd(ios, nil),
+		sensitivitycmd.NewCmd(ios, nil),
+		seekcmd.NewCmd(ios, nil),
+		sweepcmd.NewCmd(ios, nil),
+		mergecmd.NewCmd(ios, nil),
+		montecarlocmd.NewCmd(ios, nil),
+		comparecmd.NewCmd(ios, nil),
 	)
 	for _, sub := range cmd.Commands() {
 		classify(sub)

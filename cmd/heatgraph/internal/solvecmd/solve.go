@@ -18,11 +18,12 @@ import (
 // Options are the inputs of the solve command.
 type Options struct {
 	IO      *iostreams.IOStreams
-	Model   string // model file
-	Format  string // text, json or csv
-	Order   string // node order of the text report
-	Output  string // write the report here instead of standard output
-	Monitor bool   // print each Newton iteration on standard error
+	Model   string   // model file
+	Set     []string // overrides, PATH=VALUE
+	Format  string   // text, json or csv
+	Order   string   // node order of the text report
+	Output  string   // write the report here instead of standard output
+	Monitor bool     // print each Newton iteration on standard error
 	// Breakdown adds the heat-path breakdown to the text report (JSON
 	// always has it).
 	Breakdown bool
@@ -63,6 +64,7 @@ written or on an internal error.`,
 	cmd.Flags().StringVarP(&o.Output, "output", "o", "", "write the report to this file instead of standard output")
 	cmd.Flags().BoolVar(&o.Monitor, "monitor", false, "print each Newton iteration on standard error")
 	cmd.Flags().BoolVar(&o.Breakdown, "breakdown", false, "add where each source's heat goes, its main paths and the links to improve first (text report)")
+	cmd.Flags().StringArrayVar(&o.Set, "set", nil, pipeline.SetHelp)
 	return cmd
 }
 
@@ -78,7 +80,7 @@ func Run(o *Options) error {
 				it.Iteration, it.Step, it.Lambda, it.Residual, it.Scaled)
 		}
 	}
-	out, err := pipeline.Solve(o.Model, settings)
+	out, err := pipeline.Solve(o.Model, settings, o.Set...)
 	if err != nil {
 		return err
 	}
