@@ -167,6 +167,20 @@ func newDiagramState(sol *network.Solution, opt DiagramOptions) *diagramState {
 		}
 		ds.edges = append(ds.edges, e)
 	}
+	if opt.Source != "" {
+		// One source's heat: draw only the nodes its heat passes.
+		touched := map[string]bool{opt.Source: true}
+		for _, e := range ds.edges {
+			touched[e.from], touched[e.to] = true, true
+		}
+		kept := ds.nodes[:0]
+		for _, n := range ds.nodes {
+			if touched[n.ID] {
+				kept = append(kept, n)
+			}
+		}
+		ds.nodes = kept
+	}
 	return ds
 }
 

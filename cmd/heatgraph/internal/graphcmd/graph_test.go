@@ -82,6 +82,8 @@ func TestGraphDiagramLanguage(t *testing.T) {
 	require.NoError(t, err)
 	assert.Contains(t, dot, "heat of pmic only")
 	assert.NotContains(t, dot, `"cpu"->`, "cpu's own heat is not drawn")
+	assert.NotContains(t, dot, `"cpu" [`, "nor cpu, which pmic's heat does not pass")
+	assert.Contains(t, dot, `"pmic"->"board"`)
 
 	_, err = graph(t, "--source", "board")
 	assert.ErrorContains(t, err, "sources: cpu, pmic")
