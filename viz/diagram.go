@@ -317,7 +317,7 @@ func statusWord(n network.NodeResult) string {
 func nodeLabel(n network.NodeResult, members []string) string {
 	label := fmt.Sprintf("%s\n%.1f °C", n.ID, celsius(n.Temperature))
 	if len(members) > 0 {
-		label = fmt.Sprintf("%s (%d nodes)\nup to %.1f °C", n.ID, len(members), celsius(n.Temperature))
+		label = fmt.Sprintf("%s (%s)\nup to %.1f °C", n.ID, countOf(len(members), "node"), celsius(n.Temperature))
 	}
 	if n.HasLimit {
 		label += fmt.Sprintf("\nmargin %s K %s", signed(n.Margin), statusWord(n))
