@@ -37,7 +37,7 @@ func solved(t *testing.T) (*network.Solution, Run) {
 }
 
 // solveText parses, builds and solves a model given as text.
-func solveText(t *testing.T, name, text string) (*network.Solution, Run) {
+func solveText(t testing.TB, name, text string) (*network.Solution, Run) {
 	t.Helper()
 	m, err := network.Parse(name, []byte(text))
 	require.NoError(t, err)
