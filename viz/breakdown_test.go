@@ -1,8 +1,10 @@
 package viz
 
 import (
+	"fmt"
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -174,4 +176,32 @@ func TestBreakdownConservesEnergy(t *testing.T) {
 		}
 	}
 	assert.True(t, airSeen, "some example carries heat out in moving air")
+}
+
+// BenchmarkBreakdown decomposes the heat of chains of 100 and 400 nodes,
+// one source at the end, and of a row of 100 sources side by side.
+func BenchmarkBreakdown(b *testing.B) {
+	for _, n := range []int{100, 400} {
+		b.Run(fmt.Sprintf("chain-%d", n), func(b *testing.B) {
+			sol := solveChain(b, n)
+			for b.Loop() {
+				NewBreakdown(sol)
+			}
+		})
+	}
+	b.Run("sources-100", func(b *testing.B) {
+		var m strings.Builder
+		m.WriteString("ambient: {temperature: 25 degC}\nnodes:\n  - {id: plate}\n")
+		for i := range 100 {
+			fmt.Fprintf(&m, "  - {id: s%d, power: 0.5 W, limit: 100 degC}\n", i)
+		}
+		m.WriteString("links:\n  - {kind: lumped, from: plate, to: ambient, resistance: 0.1 K/W}\n")
+		for i := range 100 {
+			fmt.Fprintf(&m, "  - {kind: lumped, from: s%d, to: plate, resistance: %d K/W}\n", i, 1+i%7)
+		}
+		sol, _ := solveText(b, "row.yaml", m.String())
+		for b.Loop() {
+			NewBreakdown(sol)
+		}
+	})
 }

@@ -82,8 +82,8 @@ func newDiagramState(sol *network.Solution, opt DiagramOptions) *diagramState {
 	for _, c := range opt.Collapse {
 		collapse[c] = true
 	}
-	rep := map[string]string{} // node id -> drawn id
-	groupNodes := map[string]*network.NodeResult{}
+	rep := map[string]string{}  // node id -> drawn id
+	groupAt := map[string]int{} // collapsed group node -> its index in ds.nodes
 	for _, n := range sol.Nodes {
 		gr := ds.group[n.ID]
 		if !collapse[gr] || n.Kind == network.Fixed {
@@ -92,23 +92,23 @@ func newDiagramState(sol *network.Solution, opt DiagramOptions) *diagramState {
 			continue
 		}
 		// A collapsed group is one node: the hottest member's temperature
-		// and the worst member's margin, the members' heat input summed.
+		// and the worst member's margin, the members' power summed.
 		id := "group " + gr
 		rep[n.ID] = id
 		ds.members[id] = append(ds.members[id], n.ID)
-		gn := groupNodes[id]
-		if gn == nil {
+		i, ok := groupAt[id]
+		if !ok {
+			i = len(ds.nodes)
+			groupAt[id] = i
 			ds.nodes = append(ds.nodes, network.NodeResult{ID: id, Kind: network.Solid, Temperature: n.Temperature})
-			gn = &ds.nodes[len(ds.nodes)-1]
-			groupNodes[id] = gn
 		}
+		gn := &ds.nodes[i]
 		gn.Temperature = math.Max(gn.Temperature, n.Temperature)
 		gn.Power += n.Power
 		if n.HasLimit && (!gn.HasLimit || n.Margin < gn.Margin) {
 			gn.HasLimit, gn.Margin, gn.Limit, gn.Status = true, n.Margin, n.Limit, n.Status
 		}
 	}
-	// groupNodes point into ds.nodes, which no longer grows.
 	if len(collapse) > 0 {
 		type key struct {
 			a, b string
@@ -166,6 +166,20 @@ func newDiagramState(sol *network.Solution, opt DiagramOptions) *diagramState {
 			ds.mixed = true
 		}
 		ds.edges = append(ds.edges, e)
+	}
+	if opt.Source != "" {
+		// One source's heat: draw only the nodes its heat passes.
+		touched := map[string]bool{opt.Source: true}
+		for _, e := range ds.edges {
+			touched[e.from], touched[e.to] = true, true
+		}
+		kept := ds.nodes[:0]
+		for _, n := range ds.nodes {
+			if touched[n.ID] {
+				kept = append(kept, n)
+			}
+		}
+		ds.nodes = kept
 	}
 	return ds
 }
@@ -307,7 +321,7 @@ func statusWord(n network.NodeResult) string {
 func nodeLabel(n network.NodeResult, members []string) string {
 	label := fmt.Sprintf("%s\n%.1f °C", n.ID, celsius(n.Temperature))
 	if len(members) > 0 {
-		label = fmt.Sprintf("%s (%d nodes)\nup to %.1f °C", n.ID, len(members), celsius(n.Temperature))
+		label = fmt.Sprintf("%s (%s)\nup to %.1f °C", n.ID, countOf(len(members), "node"), celsius(n.Temperature))
 	}
 	if n.HasLimit {
 		label += fmt.Sprintf("\nmargin %s K %s", signed(n.Margin), statusWord(n))

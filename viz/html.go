@@ -17,6 +17,7 @@ import (
 type HTMLReport struct {
 	Title       string
 	File        string
+	Summary     string // what the model holds, in words
 	Ambient     string // temperature, pressure and altitude in words
 	Margin      string // the required margin in words
 	Iterations  int
@@ -81,6 +82,15 @@ func NewHTMLReport(sol *network.Solution, run Run, svg []byte) *HTMLReport {
 	if r.Title == "" {
 		r.Title = m.File
 	}
+	fixed, power := 0, 0.0
+	for _, n := range sol.Nodes {
+		if n.Kind == network.Fixed {
+			fixed++
+		}
+		power += n.Power
+	}
+	r.Summary = fmt.Sprintf("%s (%d at a fixed temperature), %s, %s; %s of power in all",
+		countOf(len(sol.Nodes), "node"), fixed, countOf(len(m.Components), "component"), countOf(len(sol.Links), "link"), watts(power))
 	if m.RequiredMargin > 0 {
 		r.Margin = fmt.Sprintf("%s K: limits closer than this are flagged tight", trimK(m.RequiredMargin))
 	}
@@ -162,6 +172,14 @@ func WriteHTML(w io.Writer, r *HTMLReport) error {
 	return err
 }
 
+// countOf writes n with a noun, singular for one.
+func countOf(n int, noun string) string {
+	if n == 1 {
+		return "1 " + noun
+	}
+	return fmt.Sprintf("%d %ss", n, noun)
+}
+
 func pct(x float64) string     { return fmt.Sprintf("%.1f %%", 100*x) }
 func wattsF(x float64) string  { return watts(x) }
 func kelvinF(x float64) string { return fnum("%.2f", x) + " K" }
@@ -215,6 +233,7 @@ tr.tight td { background: #f8ecd2; }
 {{else}}
 <h2>Model and assumptions</h2>
 <table id="summary">
+<tr><th>model</th><td>{{.Summary}}</td></tr>
 <tr><th>ambient</th><td>{{.Ambient}}</td></tr>
 <tr><th>required margin</th><td>{{.Margin}}</td></tr>
 <tr><th>solve</th><td>steady state, {{.Iterations}} Newton iterations</td></tr>

@@ -42,8 +42,8 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 	tw.printf("\n")
 	if len(run.Kinds) > 1 {
 		for _, k := range run.Kinds {
-			tw.printf("  %s: %d unknowns, last step %.2g %s, largest %s residual %.2g %s\n",
-				k.Name, k.Unknowns, k.Step, k.Unit, k.Equation, k.Residual, k.EquationUnit)
+			tw.printf("  %s: %s, last step %.2g %s, largest %s residual %.2g %s\n",
+				k.Name, countOf(k.Unknowns, "unknown"), k.Step, k.Unit, k.Equation, k.Residual, k.EquationUnit)
 		}
 	}
 	tw.printf("\n")
@@ -222,12 +222,20 @@ func Verdict(sol *network.Solution) string {
 	case len(over) > 0:
 		parts = append(parts, fmt.Sprintf("OVER LIMIT: %s", strings.Join(over, ", ")))
 	default:
-		parts = append(parts, fmt.Sprintf("all %d limits hold", checked))
+		parts = append(parts, limitsHold(checked))
 	}
 	if len(tight) > 0 {
 		parts = append(parts, fmt.Sprintf("below the required margin of %.1f K: %s", sol.Net.Model.RequiredMargin, strings.Join(tight, ", ")))
 	}
 	return strings.Join(parts, "; ")
+}
+
+// limitsHold says that every one of n checked limits holds.
+func limitsHold(n int) string {
+	if n == 1 {
+		return "the 1 limit holds"
+	}
+	return fmt.Sprintf("all %d limits hold", n)
 }
 
 func statusText(s network.Status) string {

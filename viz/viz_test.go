@@ -37,7 +37,7 @@ func solved(t *testing.T) (*network.Solution, Run) {
 }
 
 // solveText parses, builds and solves a model given as text.
-func solveText(t *testing.T, name, text string) (*network.Solution, Run) {
+func solveText(t testing.TB, name, text string) (*network.Solution, Run) {
 	t.Helper()
 	m, err := network.Parse(name, []byte(text))
 	require.NoError(t, err)
@@ -83,7 +83,7 @@ func TestTextReport(t *testing.T) {
 	out := buf.String()
 	assert.Contains(t, out, "chip")
 	assert.Contains(t, out, "+10.00")
-	assert.Contains(t, out, "all 1 limits hold")
+	assert.Contains(t, out, "the 1 limit holds")
 	lines := strings.Split(out, "\n")
 	// Sorted by margin: the only node with a limit comes first.
 	for i, l := range lines {

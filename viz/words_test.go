@@ -107,3 +107,18 @@ func TestTextLeavesOutEmptyAirPaths(t *testing.T) {
 	assert.NotContains(t, text.String(), "0.000 W carried")
 	assert.Contains(t, text.String(), "W carried by the air air-mid → air-out", "air that does carry heat is listed")
 }
+
+func TestSingularWords(t *testing.T) {
+	assert.Equal(t, "the 1 limit holds", limitsHold(1))
+	assert.Equal(t, "all 3 limits hold", limitsHold(3))
+	assert.Equal(t, "1 node", countOf(1, "node"))
+	assert.Equal(t, "2 nodes", countOf(2, "node"))
+	sol, _ := solveText(t, "one.yaml", `
+ambient: {temperature: 20 degC}
+nodes:
+  - {id: chip, power: 1 W, limit: 60 degC}
+links:
+  - {kind: lumped, from: chip, to: ambient, resistance: 10 K/W}
+`)
+	assert.Equal(t, "the 1 limit holds", Verdict(sol))
+}

@@ -73,11 +73,17 @@ func TestGraphDiagramLanguage(t *testing.T) {
 	assert.Contains(t, dot, `"group main-board"`)
 	assert.NotContains(t, dot, `"cpu" [`, "cpu is drawn inside the group's node")
 	assert.Contains(t, dot, "(3 nodes)")
+	// The group's node: the hottest member (pmic, 46.5 °C), the worst
+	// margin (cpu: 100 − 40.5 = 59.5 K; pmic: 110 − 46.5 = 63.5 K) and
+	// the power of all members (6 W + 1 W).
+	assert.Contains(t, dot, `group main-board (3 nodes)\nup to 46.5 °C\nmargin +59.5 K ok\npower 7 W`)
 
 	dot, err = graph(t, "--source", "pmic")
 	require.NoError(t, err)
 	assert.Contains(t, dot, "heat of pmic only")
 	assert.NotContains(t, dot, `"cpu"->`, "cpu's own heat is not drawn")
+	assert.NotContains(t, dot, `"cpu" [`, "nor cpu, which pmic's heat does not pass")
+	assert.Contains(t, dot, `"pmic"->"board"`)
 
 	_, err = graph(t, "--source", "board")
 	assert.ErrorContains(t, err, "sources: cpu, pmic")

@@ -66,6 +66,7 @@ func TestReportContents(t *testing.T) {
 	page := build(t, hostile)
 	for _, want := range []string{
 		"30.00 °C", "standard atmosphere at 1500 m", // ambient, altitude and pressure
+		"3 nodes (1 at a fixed temperature), 1 component, 3 links; 6 W of power in all", // board, cpu, ambient; cpu.jb, film, glow,
 		"10 K: limits closer than this are flagged tight",
 		`id="results"`, "<td>cpu</td>",
 		`id="breakdown"`, "Improve first",
