@@ -85,7 +85,7 @@ func TestSweepShardsAndMerge(t *testing.T) {
 	svg, err := os.ReadFile(dir + "/s.svg")
 	require.NoError(t, err)
 	assert.Contains(t, string(svg), "<svg")
-	assert.Contains(t, string(svg), "radio limit")
+	assert.Contains(t, string(svg), "air-out limit")
 	var doc struct {
 		Points []struct {
 			Point  int    `json:"point"`
