@@ -14,7 +14,7 @@ func TestReadStudyProblems(t *testing.T) {
 	model := filepath.Join(dir, "m.yaml")
 	require.NoError(t, os.WriteFile(model, []byte(linear), 0o644))
 	for _, c := range []struct{ text, want string }{
-		{"model: m.yaml\nsweep: [{vary: nodes.chip.power, from: 1 W, to: 2 V, count: 3}]\n", `sweep[0].to: unknown unit "V"`},
+		{"model: m.yaml\nsweep: [{vary: nodes.chip.power, from: 1 W, to: 2 V, count: 3}]\n", `s.yaml:2: sweep[0].to: unknown unit "V"`},
 		{"model: m.yaml\nsweep: [{vary: nodes.chp.power, values: [1 W]}]\n", `sweep[0].vary: nodes.chp.power names no numeric value`},
 		{"model: m.yaml\nsweep: [{vary: nodes.chip.power, values: [1 W], from: 1 W}]\n", `sweep[0]: give values, or from and to`},
 		{"model: m.yaml\nsweep: [{vary: ambient.temperature, from: 20 degC, to: 30 degC, step: 5 K, count: 3}]\n", `sweep[0]: give step or count, not both`},
@@ -23,8 +23,8 @@ func TestReadStudyProblems(t *testing.T) {
 		{"sweep: []\n", `model: missing`},
 		{"model: m.yaml\nset: {nodes.chip.power: 3 V}\nsweep: [{vary: nodes.chip.power, values: [1 W]}]\n", `--set nodes.chip.power: unknown unit "V"`},
 		{"model: m.yaml\nmontecarlo: {samples: 10, vary: [{vary: nodes.chip.power, normal: {sigma: 1 W}, uniform: {low: 1 W, high: 2 W}}]}\n", `montecarlo.vary[0]: give one distribution`},
-		{"model: m.yaml\nmontecarlo: {samples: 10, vary: [{vary: nodes.chip.power, triangular: {low: 1 W, mode: 3 W, high: 2 W}}]}\n", `needs low ≤ mode ≤ high`},
-		{"model: m.yaml\nmontecarlo: {samples: 0, vary: [{vary: nodes.chip.power, normal: {sigma: 1 W}}]}\n", `montecarlo.samples: a number of samples from 1`},
+		{"model: m.yaml\nmontecarlo:\n  samples: 10\n  vary:\n    - {vary: nodes.chip.power, normal: {sigma: 1 W}}\n    - {vary: nodes.chip.power, triangular: {low: 1 W, mode: 3 W, high: 2 W}}\n", `s.yaml:6: montecarlo.vary[1].triangular: needs low ≤ mode ≤ high`},
+		{"model: m.yaml\nmontecarlo: {samples: 0, vary: [{vary: nodes.chip.power, normal: {sigma: 1 W}}]}\n", `s.yaml:2: montecarlo.samples: a number of samples from 1`},
 		{"model: m.yaml\nmontecarlo: {samples: 5, vary: [{vary: ambient.temperature, normal: {sigma: 1 degC}}]}\n", ``},
 	} {
 		path := filepath.Join(dir, "s.yaml")
