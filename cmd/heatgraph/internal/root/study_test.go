@@ -132,7 +132,7 @@ montecarlo:
 `), 0o644))
 	code, summary, stderr := run("montecarlo", study, "-o", dir+"/all.csv", "--json", dir+"/all.json")
 	require.Equal(t, exit.OK, code, stderr)
-	assert.Contains(t, summary, "40 samples (seed 11), 0 without a solution")
+	assert.Contains(t, summary, "40 samples (seed 11), 0 without a result")
 	assert.Regexp(t, `radio +\d+\.\d\d +\d\.\d+ +`, summary)
 	var parts []string
 	for _, s := range []string{"0/4", "1/4", "2/4", "3/4"} {
