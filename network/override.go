@@ -557,7 +557,14 @@ func ParameterAt(file string, data []byte, ovs []Override, path string) (Paramet
 	case path == "required_margin":
 		return Parameter{Path: path, Kind: units.TemperatureDifference, Verdict: true}, true
 	case strings.HasSuffix(path, ".power") && (strings.HasPrefix(path, "nodes.") || strings.HasPrefix(path, "components.")):
-		return Parameter{Path: path, Kind: units.Power}, true
+		section, rest, _ := strings.Cut(strings.TrimSuffix(path, ".power"), ".")
+		if root := treeOf(file, data, ovs); root != nil {
+			for _, it := range itemsOf(root, section) {
+				if it.id == rest {
+					return Parameter{Path: path, Kind: units.Power}, true
+				}
+			}
+		}
 	case strings.HasPrefix(path, "links."):
 		// A key of the link's kind that the file does not give (a
 		// conductance where it gives a resistance).

@@ -165,6 +165,8 @@ links:
 	p, ok := ParameterAt("box.yaml", []byte(src), nil, "ambient.altitude")
 	assert.True(t, ok)
 	assert.Equal(t, units.Length, p.Kind)
+	_, ok = ParameterAt("box.yaml", []byte(src), nil, "nodes.c.power")
+	assert.False(t, ok)
 	p, ok = ParameterAt("box.yaml", []byte(src), nil, "links.a--ambient.conductance")
 	assert.True(t, ok)
 	assert.Equal(t, units.Conductance, p.Kind)

@@ -50,7 +50,7 @@ func TestShardsMergeToTheWhole(t *testing.T) {
 		return buf.Bytes()
 	}
 	mc := Sampling{Samples: 23, Seed: 99, Dists: []Distribution{
-		{Param: mustParam(t, st.Model, "components.cpu.power"), Kind: "normal", Mean: 5.5, Sigma: 0.5},
+		{Param: mustParam(t, st.Model, "components.bridge-front.power"), Kind: "normal", Mean: 60, Sigma: 3},
 		{Param: mustParam(t, st.Model, "ambient.temperature"), Kind: "triangular", Low: 290, Mode: 300, High: 320},
 	}}
 	for _, d := range []Design{st.Grid, mc} {

@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
+	"strconv"
+	"strings"
 
 	"github.com/heatgraph/heatgraph/network"
 	"github.com/heatgraph/heatgraph/units"
@@ -72,8 +74,17 @@ func ReadStudy(path string, set []network.Override) (*Study, error) {
 	if err := dec.Decode(&spec); err != nil {
 		return nil, fmt.Errorf("%s: %v", path, err)
 	}
+	var tree yaml.Node
+	_ = yaml.Unmarshal(data, &tree)
 	fail := func(field, format string, args ...any) error {
-		return fmt.Errorf("%s: %s: %s", path, field, fmt.Sprintf(format, args...))
+		at := path
+		if line := lineOf(&tree, field); line > 0 {
+			at = fmt.Sprintf("%s:%d", path, line)
+		}
+		if field == "" {
+			return fmt.Errorf("%s: %s", at, fmt.Sprintf(format, args...))
+		}
+		return fmt.Errorf("%s: %s: %s", at, field, fmt.Sprintf(format, args...))
 	}
 	if spec.Model == "" {
 		return nil, fail("model", "missing: the model file, relative to the study file")
@@ -242,4 +253,46 @@ func ReadStudy(path string, set []network.Override) (*Study, error) {
 		st.PlotX, st.PlotNodes = p.X, p.Nodes
 	}
 	return st, nil
+}
+
+// lineOf returns the line of the value at field ("sweep[0].to") in a
+// decoded YAML document, or of the nearest part of it that exists; 0 when
+// not even the top level is there.
+func lineOf(doc *yaml.Node, field string) int {
+	if len(doc.Content) == 0 {
+		return 0
+	}
+	n := doc.Content[0]
+	line := n.Line
+	for _, part := range strings.Split(field, ".") {
+		if part == "" {
+			continue
+		}
+		key, index := part, -1
+		if i := strings.IndexByte(part, '['); i > 0 && strings.HasSuffix(part, "]") {
+			key = part[:i]
+			if k, err := strconv.Atoi(part[i+1 : len(part)-1]); err == nil {
+				index = k
+			}
+		}
+		next := (*yaml.Node)(nil)
+		if n.Kind == yaml.MappingNode {
+			for i := 0; i+1 < len(n.Content); i += 2 {
+				if n.Content[i].Value == key {
+					next = n.Content[i+1]
+				}
+			}
+		}
+		if next == nil {
+			return line
+		}
+		n, line = next, next.Line
+		if index >= 0 {
+			if n.Kind != yaml.SequenceNode || index >= len(n.Content) {
+				return line
+			}
+			n, line = n.Content[index], n.Content[index].Line
+		}
+	}
+	return line
 }

@@ -5,6 +5,7 @@ import (
 	"math"
 	"runtime"
 	"sort"
+	"strings"
 	"sync"
 
 	"github.com/heatgraph/heatgraph/network"
@@ -64,7 +65,10 @@ const RelativeStep = 1e-5
 // is perturbed through an override, the model read and the network
 // rebuilt, and the balances evaluated — no solve. Where one side of the
 // difference is not a valid model (an emissivity of 1 cannot grow), the
-// other side gives a one-sided difference. One LU factorization of J
+// other side gives a one-sided difference. Given flows of one value that
+// the model refuses to change alone (a stream and channels in series, whose
+// air nodes must pass on what they receive) are changed together, as one
+// value whose Also lists the others. One LU factorization of J
 // serves every solve; with fewer outputs than parameters (the usual case)
 // each output takes one transpose solve, else each parameter one solve.
 func (m *Model) Sensitivity() (*Sensitivities, error) {
@@ -110,9 +114,44 @@ func (m *Model) Sensitivity() (*Sensitivities, error) {
 	parallel(len(params), func(j int) {
 		grads[j], reasons[j] = m.residualSlope(pt, x, f0, params[j])
 	})
+	// Given flows of one value that cannot change alone (streams and
+	// channels in series along one air path, which an air node must pass
+	// on) change together, as one value.
+	groups := map[[2]float64][]int{}
+	var order [][2]float64
+	for j, q := range params {
+		if grads[j] == nil && (q.Kind == units.VolumeFlow || q.Kind == units.MassFlow) {
+			key := [2]float64{float64(q.Kind), q.Value}
+			if groups[key] == nil {
+				order = append(order, key)
+			}
+			groups[key] = append(groups[key], j)
+		}
+	}
+	for _, key := range order {
+		g := groups[key]
+		if len(g) < 2 {
+			continue
+		}
+		joint := params[g[0]]
+		for _, j := range g[1:] {
+			joint.Also = append(append(joint.Also, params[j].Path), params[j].Also...)
+		}
+		grad, _ := m.residualSlope(pt, x, f0, joint)
+		if grad == nil {
+			continue
+		}
+		params[g[0]], grads[g[0]] = joint, grad
+		for _, j := range g[1:] {
+			reasons[j] = "changed together with " + joint.Path
+		}
+	}
 	var cols [][]float64
 	for j, q := range params {
 		if grads[j] == nil {
+			if strings.HasPrefix(reasons[j], "changed together with ") {
+				continue
+			}
 			s.Skipped = append(s.Skipped, Skipped{q, reasons[j]})
 			continue
 		}

@@ -49,7 +49,8 @@ written (-o); 'heatgraph merge' joins the shards' tables and
 'heatgraph montecarlo STUDY --table merged.csv' summarizes the whole.
 
 Exit status: 0, 2 for an invalid study, model or command line, 4 when a
-result could not be written. Samples without a solution are counted and
+result could not be written. Samples without a result (a drawn value the
+model refuses, such as a negative area, or no solution) are counted and
 left out of the statistics.`,
 		Example: "  heatgraph montecarlo examples/studies/tolerances.yaml -o samples.csv",
 		Args:    cobra.ExactArgs(1),
@@ -140,7 +141,7 @@ func c(k float64) float64 { return k - 273.15 }
 
 func writeText(buf *bytes.Buffer, st *study.Study, stats []study.NodeStats, n, failed int) {
 	s := st.Sampling
-	fmt.Fprintf(buf, "Monte Carlo: %s, %d samples (seed %d), %d without a solution\n", st.Model.File, n, s.Seed, failed)
+	fmt.Fprintf(buf, "Monte Carlo: %s, %d samples (seed %d), %d without a result (a value the model refuses, or no solution)\n", st.Model.File, n, s.Seed, failed)
 	for _, d := range s.Dists {
 		switch d.Kind {
 		case "normal":

@@ -85,7 +85,7 @@ func TestSweepShardsAndMerge(t *testing.T) {
 	svg, err := os.ReadFile(dir + "/s.svg")
 	require.NoError(t, err)
 	assert.Contains(t, string(svg), "<svg")
-	assert.Contains(t, string(svg), "radio limit")
+	assert.Contains(t, string(svg), "air-out limit")
 	var doc struct {
 		Points []struct {
 			Point  int    `json:"point"`
@@ -132,7 +132,7 @@ montecarlo:
 `), 0o644))
 	code, summary, stderr := run("montecarlo", study, "-o", dir+"/all.csv", "--json", dir+"/all.json")
 	require.Equal(t, exit.OK, code, stderr)
-	assert.Contains(t, summary, "40 samples (seed 11), 0 without a solution")
+	assert.Contains(t, summary, "40 samples (seed 11), 0 without a result")
 	assert.Regexp(t, `radio +\d+\.\d\d +\d\.\d+ +`, summary)
 	var parts []string
 	for _, s := range []string{"0/4", "1/4", "2/4", "3/4"} {

@@ -208,7 +208,11 @@ func writeText(buf *bytes.Buffer, m *study.Model, s *study.Sensitivities, output
 			if top > 0 && i >= top {
 				break
 			}
-			fmt.Fprintf(tw, "  %d\t%s\t%s\t%.4g %s\t+%s\t%+.3g K\n", i+1, e.Param.Path, e.Param.Text, e.Slope,
+			name := e.Param.Path
+			if len(e.Param.Also) > 0 {
+				name += " (with " + strings.Join(e.Param.Also, ", ") + ")"
+			}
+			fmt.Fprintf(tw, "  %d\t%s\t%s\t%.4g %s\t+%s\t%+.3g K\n", i+1, name, e.Param.Text, e.Slope,
 				SlopeUnit(e.Param.Kind.SIUnit()), StepText(e.Param), e.Change)
 		}
 		tw.Flush()

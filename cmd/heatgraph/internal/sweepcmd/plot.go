@@ -7,23 +7,24 @@ import (
 	"math"
 	"path/filepath"
 	"sort"
+	"strconv"
+	"strings"
 
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
+	"github.com/heatgraph/heatgraph/network"
 	"github.com/heatgraph/heatgraph/study"
 	"github.com/heatgraph/heatgraph/units"
 	"gonum.org/v1/plot"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/plotutil"
 	"gonum.org/v1/plot/vg"
-	"gonum.org/v1/plot/vg/draw"
 )
 
 // Plot draws the study's plotted nodes (all with a limit by default)
 // against its plot x value (the first swept value by default), one line
-// per node, with each node's limit as a dashed line of the same colour.
-// With more than one swept value, the points of each combination of the
-// others are drawn as separate lines only when there is one; otherwise
-// only the points where the others are at their first value are drawn.
+// per node and combination of the other swept values (a marker shape
+// each; at most maxGroups of them, else only the first), with each node's
+// limit as a dashed line of the same colour.
 // The format follows the file's extension, .png or .svg.
 func Plot(st *study.Study, nodes []study.Node, rows []study.Row, file string) ([]byte, error) {
 	params := st.Grid.Params()
@@ -65,20 +66,39 @@ func Plot(st *study.Study, nodes []study.Node, rows []study.Row, file string) ([
 		}
 		return v
 	}
-	// The points where every other swept value is at its first value.
-	var pts []study.Row
+	// The points grouped by the other swept values: every group is drawn
+	// when there are at most maxGroups, else only the first.
+	var keys []string
+	groups := map[string][]study.Row{}
+	labels := map[string]string{}
 	for _, r := range rows {
-		keep := true
+		if r.T == nil {
+			continue
+		}
+		var parts []string
 		for i, a := range st.Grid {
-			if i != xi && r.Values[i] != a.Values[0] {
-				keep = false
+			if i != xi {
+				parts = append(parts, a.Param.Path+" = "+show(a.Param, r.Values[i]))
 			}
 		}
-		if keep && r.T != nil {
-			pts = append(pts, r)
+		key := strings.Join(parts, ", ")
+		if _, ok := groups[key]; !ok {
+			keys = append(keys, key)
+			labels[key] = key
 		}
+		groups[key] = append(groups[key], r)
 	}
-	sort.SliceStable(pts, func(a, b int) bool { return pts[a].Values[xi] < pts[b].Values[xi] })
+	if len(keys) > maxGroups {
+		keys = keys[:1]
+	}
+	for _, k := range keys {
+		g := groups[k]
+		sort.SliceStable(g, func(a, b int) bool { return g[a].Values[xi] < g[b].Values[xi] })
+	}
+	var pts []study.Row
+	for _, k := range keys {
+		pts = append(pts, groups[k]...)
+	}
 	p := plot.New()
 	p.Title.Text = "temperatures against " + q.Path
 	p.X.Label.Text = q.Path
@@ -95,19 +115,26 @@ func Plot(st *study.Study, nodes []study.Node, rows []study.Row, file string) ([
 		lo, hi = math.Min(lo, xval(r.Values[xi])), math.Max(hi, xval(r.Values[xi]))
 	}
 	for c, k := range chosen {
-		xy := make(plotter.XYs, len(pts))
-		for i, r := range pts {
-			xy[i].X, xy[i].Y = xval(r.Values[xi]), r.T[k]-273.15
-		}
 		col := plotutil.Color(c)
-		line, points, err := plotter.NewLinePoints(xy)
-		if err != nil {
-			return nil, err
+		for gi, key := range keys {
+			g := groups[key]
+			xy := make(plotter.XYs, len(g))
+			for i, r := range g {
+				xy[i].X, xy[i].Y = xval(r.Values[xi]), r.T[k]-273.15
+			}
+			line, points, err := plotter.NewLinePoints(xy)
+			if err != nil {
+				return nil, err
+			}
+			line.Color, points.Color = col, col
+			points.Shape = plotutil.Shape(gi)
+			p.Add(line, points)
+			name := nodes[k].ID
+			if len(keys) > 1 || key != "" {
+				name += " (" + labels[key] + ")"
+			}
+			p.Legend.Add(name, line, points)
 		}
-		line.Color, points.Color = col, col
-		points.Shape = draw.CircleGlyph{}
-		p.Add(line, points)
-		p.Legend.Add(nodes[k].ID, line)
 		if nodes[k].HasLimit && len(pts) > 0 {
 			lim := nodes[k].Limit - 273.15
 			ll, err := plotter.NewLine(plotter.XYs{{X: lo, Y: lim}, {X: hi, Y: lim}})
@@ -130,6 +157,18 @@ func Plot(st *study.Study, nodes []study.Node, rows []study.Row, file string) ([
 		return nil, fmt.Errorf("drawing %s: %w", file, err)
 	}
 	return buf.Bytes(), nil
+}
+
+// maxGroups is the most combinations of the other swept values a plot
+// draws as lines of their own.
+const maxGroups = 6
+
+// show writes an SI value of q's kind for a legend: temperatures in degC.
+func show(q network.Parameter, v float64) string {
+	if q.Kind == units.Temperature {
+		return strconv.FormatFloat(v-273.15, 'g', 6, 64) + " degC"
+	}
+	return q.Format(v)
 }
 
 func withAlpha(c color.Color) color.Color {
