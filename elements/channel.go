@@ -132,6 +132,8 @@ type Channel struct {
 	Options             duct.Options
 	Upstream            float64 // length of the same channels upstream, m; 0 at the entry
 	Downstream          float64 // length of the same channels downstream, m; 0 at the exit
+	// hScale multiplies h when not zero: CoefficientSlope varies it.
+	hScale float64
 }
 
 // channelState is everything the channel computes at one state.
@@ -169,7 +171,7 @@ func (c *Channel) eval(s *State, seed int) (cs channelState, tm dual.Num) {
 	// Stamping needs Nu alone; reports (seedNone) need the rest too.
 	opts.HeatOnly = seed != seedNone
 	res := c.segmentFlow(re, p.Pr, opts)
-	h := res.Nu.Mul(p.K).Scale(1 / g.Duct.Dh())
+	h := res.Nu.Mul(p.K).Scale(c.scale() / g.Duct.Dh())
 	aEff := dual.C(g.PrimeArea)
 	eta := dual.C(1)
 	if g.FinArea > 0 {
@@ -306,4 +308,33 @@ func (c *Channel) Report(s *State) Report {
 		}
 	}
 	return Report{Details: d, Warnings: warn}
+}
+
+func (c *Channel) scale() float64 {
+	if c.hScale == 0 {
+		return 1
+	}
+	return c.hScale
+}
+
+// Accuracy returns the relative accuracy of the Nusselt correlation in use
+// at s.
+func (c *Channel) Accuracy(s *State) (float64, string) {
+	cs, _ := c.eval(s, seedNone)
+	switch {
+	case cs.flow.Regime == duct.RegimeTransitional:
+		return 0.20, "transition range 2300 < Re < 10⁴: ±20 % or more (from memory)"
+	case cs.flow.Regime == duct.RegimeTurbulent && c.Options.Turbulent == duct.DittusBoelter:
+		return 0.25, "Dittus–Boelter: errors as large as 25 % (Incropera et al. §8.5, from memory)"
+	case cs.flow.Regime == duct.RegimeTurbulent:
+		return 0.10, "Gnielinski (1976): about ±10 % against most data (from memory)"
+	case cs.flow.Developing:
+		return 0.10, "laminar developing flow (Muzychka & Yovanovich 2004 combined entry): within about ±10 % (from memory)"
+	}
+	return 0.05, "laminar fully developed flow (Shah & London 1978): exact for the ideal duct; ±5 % for manufacturing tolerances of the gaps (rule of thumb)"
+}
+
+// CoefficientSlope adds ∂R/∂ln h.
+func (c *Channel) CoefficientSlope(s *State, l *Local) {
+	coefficientSlope(s, l, func(k float64) Element { cc := *c; cc.hScale = k; return &cc })
 }

@@ -22,6 +22,7 @@ type FlatPlate struct {
 	Velocity     float64 // free-stream velocity, m/s
 	Length       float64 // plate length along the flow, m
 	Area         float64 // m²
+	hScale       float64 // multiplies h when not zero (CoefficientSlope)
 }
 
 // NewFlatPlate checks and returns a flat-plate forced-convection link.
@@ -37,8 +38,30 @@ func (f *FlatPlate) eval(s *State, film dual.Num) (re, nu, h dual.Num, p air.Pro
 	p = air.At(film, s.Env.Pressure)
 	re = p.Nu.Inv().Scale(f.Velocity * f.Length)
 	nu = convection.FlatPlate(re, p.Pr)
-	h = nu.Mul(p.K).Scale(1 / f.Length)
+	h = nu.Mul(p.K).Scale(f.scale() / f.Length)
 	return re, nu, h, p
+}
+
+func (f *FlatPlate) scale() float64 {
+	if f.hScale == 0 {
+		return 1
+	}
+	return f.hScale
+}
+
+// Accuracy returns the relative accuracy of the correlation in use at s.
+func (f *FlatPlate) Accuracy(s *State) (float64, string) {
+	film := (s.X[f.Surface] + s.X[f.Air]) / 2
+	re, _, _, _ := f.eval(s, dual.C(film))
+	if re.V >= convection.CriticalRe {
+		return 0.25, "mixed laminar-turbulent flat plate (Incropera eq. 7.38): the transition point is uncertain, about ±25 % (from memory)"
+	}
+	return 0.10, "laminar flat plate (Incropera eq. 7.30): exact for the similarity solution; about ±10 % for a real wall in a draught (from memory)"
+}
+
+// CoefficientSlope adds ∂R/∂ln h.
+func (f *FlatPlate) CoefficientSlope(s *State, l *Local) {
+	coefficientSlope(s, l, func(k float64) Element { c := *f; c.hScale = k; return &c })
 }
 
 // Rows returns Surface and Air.

@@ -68,6 +68,33 @@ type Natural struct {
 	Area         float64 // plate area, m² (unused for FinArray: the fins set the area)
 	Length       float64 // characteristic length as above; for FinArray the vertical length, m
 	Fins         Fins    // FinArray only
+	// hScale multiplies the correlation's h when not zero: the coefficient
+	// slope of the accuracy band (CoefficientSlope) varies it.
+	hScale float64
+}
+
+func (n *Natural) scale() float64 {
+	if n.hScale == 0 {
+		return 1
+	}
+	return n.hScale
+}
+
+// Accuracy returns the relative accuracy of the correlation in use at s.
+func (n *Natural) Accuracy(s *State) (float64, string) {
+	switch n.Orientation {
+	case Vertical:
+		return 0.10, "Churchill & Chu (1975) vertical plate: about ±10 % against the data they fitted (from memory)"
+	case FinArray:
+		return 0.15, "Bar-Cohen & Rohsenow (1984) fin arrays: about ±15 % (from memory)"
+	}
+	return 0.20, "horizontal plates (Lloyd & Moran 1974; Incropera eq. 9.32): about ±20 % (from memory)"
+}
+
+// CoefficientSlope adds ∂R/∂ln h: how the element's flows change with its
+// coefficient.
+func (n *Natural) CoefficientSlope(s *State, l *Local) {
+	coefficientSlope(s, l, func(k float64) Element { c := *n; c.hScale = k; return &c })
 }
 
 // NewNatural checks and returns a natural-convection link.
@@ -123,7 +150,7 @@ func (n *Natural) eval(s *State, seed int) naturalState {
 	case Vertical:
 		ns.ra = gravityRa(s, p, dT, n.Length)
 		ns.nu = convection.ChurchillChu(ns.ra, p.Pr)
-		ns.h = ns.nu.Mul(p.K).Scale(1 / n.Length)
+		ns.h = ns.nu.Mul(p.K).Scale(n.scale() / n.Length)
 		ns.hA = ns.h.Scale(n.Area)
 		ns.correlation = "Churchill-Chu (1975), vertical plate"
 		ns.ranges = []rangeCheck{{convection.ChurchillChuRa, ns.ra.V}}
@@ -139,7 +166,7 @@ func (n *Natural) eval(s *State, seed int) naturalState {
 			ns.correlation = "Incropera et al. eq. 9.32, buoyant flow trapped under the face"
 			ns.ranges = []rangeCheck{{convection.HorizontalDownRa, ns.ra.V}, {convection.HorizontalPr, p.Pr.V}}
 		}
-		ns.h = ns.nu.Mul(p.K).Scale(1 / n.Length)
+		ns.h = ns.nu.Mul(p.K).Scale(n.scale() / n.Length)
 		ns.hA = ns.h.Scale(n.Area)
 	case FinArray:
 		f := n.Fins
@@ -147,7 +174,7 @@ func (n *Natural) eval(s *State, seed int) naturalState {
 		el := raS.Scale(f.Spacing / n.Length)
 		ns.ra = el
 		ns.nu = convection.BarCohenSymmetric(el)
-		ns.h = ns.nu.Mul(p.K).Scale(1 / f.Spacing)
+		ns.h = ns.nu.Mul(p.K).Scale(n.scale() / f.Spacing)
 		ns.eta = convection.FinEfficiency(ns.h, f.Conductivity, f.Thickness, f.Height)
 		finArea := 2 * float64(f.Count) * f.Height * n.Length
 		baseArea := float64(f.Count-1) * f.Spacing * n.Length

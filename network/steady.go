@@ -161,3 +161,42 @@ func (p *Steady) flows() []float64 {
 	p.ev.eval(&p.state, p.sum, nil, nil)
 	return p.sum
 }
+
+// CoefficientSlope is how the balances change when one link's correlation
+// coefficient is off by a fraction: Slope[u] = ∂F_u/∂ln h for every
+// unknown u, with the correlation's published accuracy.
+type CoefficientSlope struct {
+	Link     string
+	Kind     string
+	Accuracy float64 // ± fraction of the coefficient
+	Source   string  // where the accuracy figure comes from
+	Slope    []float64
+}
+
+// CoefficientSlopes returns the coefficient slope of every link whose
+// coefficient comes from a correlation with a stated accuracy
+// (elements.Uncertain), at the unknowns x.
+func (p *Steady) CoefficientSlopes(x []float64) ([]CoefficientSlope, error) {
+	if err := p.load(x); err != nil {
+		return nil, err
+	}
+	var out []CoefficientSlope
+	for _, l := range p.net.Links {
+		u, ok := l.Element.(elements.Uncertain)
+		if !ok {
+			continue
+		}
+		rows := u.Rows()
+		loc := elements.NewLocal(len(rows), len(u.Vars()), false)
+		u.CoefficientSlope(&p.state, loc)
+		acc, src := u.Accuracy(&p.state)
+		cs := CoefficientSlope{Link: l.ID, Kind: l.Kind, Accuracy: acc, Source: src, Slope: make([]float64, p.Size())}
+		for r, v := range rows {
+			if f := p.net.free[v]; f >= 0 {
+				cs.Slope[f] += loc.R[r]
+			}
+		}
+		out = append(out, cs)
+	}
+	return out, nil
+}

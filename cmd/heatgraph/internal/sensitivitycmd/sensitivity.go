@@ -88,11 +88,19 @@ func Run(o *Options) error {
 	if err != nil {
 		return err
 	}
+	bands, err := m.Accuracy()
+	if err != nil {
+		return Failed(o.Model, err)
+	}
+	byNode := map[string]study.Band{}
+	for _, b := range bands {
+		byNode[b.Output.Node] = b
+	}
 	var buf bytes.Buffer
 	if o.Format == "json" {
-		err = writeJSON(&buf, m, s, outputs, o.Top)
+		err = writeJSON(&buf, m, s, outputs, o.Top, byNode)
 	} else {
-		err = writeText(&buf, m, s, outputs, o.Top)
+		err = writeText(&buf, m, s, outputs, o.Top, byNode)
 	}
 	if err != nil {
 		return err
@@ -183,7 +191,7 @@ func StepText(q network.Parameter) string {
 	return "10 %"
 }
 
-func writeText(buf *bytes.Buffer, m *study.Model, s *study.Sensitivities, outputs []int, top int) error {
+func writeText(buf *bytes.Buffer, m *study.Model, s *study.Sensitivities, outputs []int, top int, bands map[string]study.Band) error {
 	title := s.Point.Net.Model.Title
 	if title == "" {
 		title = m.File
@@ -216,6 +224,15 @@ func writeText(buf *bytes.Buffer, m *study.Model, s *study.Sensitivities, output
 				SlopeUnit(e.Param.Kind.SIUnit()), StepText(e.Param), e.Change)
 		}
 		tw.Flush()
+		if b, ok := bands[o.Node]; ok && len(b.Contributions) > 0 {
+			fmt.Fprintf(buf, "  from the correlations' stated accuracy: ±%.2f K (first order, independent errors combined root-sum-square); largest:\n", b.HalfWidthK)
+			for i, c := range b.Contributions {
+				if i == 3 {
+					break
+				}
+				fmt.Fprintf(buf, "    %s (%s) ±%.0f %% of h: %+.2f K for h high — %s\n", c.Link, c.Kind, 100*c.Accuracy, c.DeltaK, c.Source)
+			}
+		}
 	}
 	if len(s.Skipped) > 0 {
 		fmt.Fprintln(buf, "\nnot varied (the model is not valid with the value changed alone):")
@@ -246,9 +263,21 @@ type jsonOutput struct {
 	Limit    *float64     `json:"limit_degC,omitempty"`
 	Margin   *float64     `json:"margin_K,omitempty"`
 	Rankings []jsonEffect `json:"ranking"`
+	// BandK is the half-width of the band the correlations' stated
+	// accuracies give the temperature, K (first order, root-sum-square).
+	BandK        *float64           `json:"correlation_band_K,omitempty"`
+	Correlations []jsonContribution `json:"correlation_contributions,omitempty"`
 }
 
-func writeJSON(buf *bytes.Buffer, m *study.Model, s *study.Sensitivities, outputs []int, top int) error {
+type jsonContribution struct {
+	Link     string  `json:"link"`
+	Kind     string  `json:"kind"`
+	Accuracy float64 `json:"accuracy"`
+	Source   string  `json:"source"`
+	DeltaK   float64 `json:"change_K"`
+}
+
+func writeJSON(buf *bytes.Buffer, m *study.Model, s *study.Sensitivities, outputs []int, top int, bands map[string]study.Band) error {
 	doc := struct {
 		Model   string            `json:"model"`
 		Set     []string          `json:"set,omitempty"`
@@ -274,6 +303,13 @@ func writeJSON(buf *bytes.Buffer, m *study.Model, s *study.Sensitivities, output
 			}
 			jo.Rankings = append(jo.Rankings, jsonEffect{Path: e.Param.Path, Also: e.Param.Also, Value: e.Param.Text, SI: e.Param.Value,
 				Unit: e.Param.Kind.SIUnit(), Slope: e.Slope, SUnit: SlopeUnit(e.Param.Kind.SIUnit()), Step: e.Step, Change: e.Change})
+		}
+		if b, ok := bands[o.Node]; ok && len(b.Contributions) > 0 {
+			w := b.HalfWidthK
+			jo.BandK = &w
+			for _, c := range b.Contributions {
+				jo.Correlations = append(jo.Correlations, jsonContribution{Link: c.Link, Kind: c.Kind, Accuracy: c.Accuracy, Source: c.Source, DeltaK: c.DeltaK})
+			}
 		}
 		doc.Outputs = append(doc.Outputs, jo)
 	}

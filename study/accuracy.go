@@ -1,0 +1,114 @@
+package study
+
+import (
+	"math"
+	"sort"
+
+	"github.com/heatgraph/heatgraph/network"
+)
+
+// Contribution is one correlation's part of an output's accuracy band.
+type Contribution struct {
+	Link     string
+	Kind     string
+	Accuracy float64 // ± fraction of the link's coefficient
+	Source   string
+	// DeltaK is the change of the output's temperature, K, when the link's
+	// coefficient is off by its whole accuracy (signed: for the coefficient
+	// high).
+	DeltaK float64
+}
+
+// Band is an output's temperature with the band that the stated
+// accuracies of the correlations give it.
+type Band struct {
+	Output Output
+	// HalfWidthK is the root-sum-square of the contributions, K: the
+	// temperature is T ± HalfWidthK from the correlations alone.
+	HalfWidthK float64
+	// Contributions, the largest first.
+	Contributions []Contribution
+}
+
+// Accuracy propagates the published accuracy of every correlation in the
+// model (a natural-convection surface's Churchill–Chu, a channel's
+// Gnielinski …, elements.Uncertain) to each output's temperature, to first
+// order, through the adjoint of the converged Jacobian:
+//
+//	ΔT_k,e = −λ_kᵀ·(∂F/∂ln h_e)·u_e,   Jᵀλ_k = e_k,
+//
+// for each link e whose coefficient h_e is known to ±u_e, and combines
+// them as independent errors by the root-sum-square. The slopes ∂F/∂ln h_e
+// are central differences of the link's own flows with its coefficient
+// scaled (no solve). Given coefficients (convection with a coefficient the
+// user states) and radiation carry no correlation error here: their
+// uncertainty is in the values the user gives, which Monte Carlo covers.
+// Links whose flow is solved for (branches) are not included.
+func (m *Model) Accuracy() ([]Band, error) {
+	pt, err := m.Solve()
+	if err != nil {
+		return nil, err
+	}
+	p := pt.Problem
+	x := pt.Result.X
+	slopes, err := p.CoefficientSlopes(x)
+	if err != nil {
+		return nil, err
+	}
+	jac := p.Pattern()
+	f0 := make([]float64, p.Size())
+	if err := p.Evaluate(x, f0, jac, nil); err != nil {
+		return nil, err
+	}
+	lu, err := factorDense(jac)
+	if err != nil {
+		return nil, err
+	}
+	outputs := outputsOf(pt, x)
+	bands := make([]Band, len(outputs))
+	e := make([]float64, p.Size())
+	for k, o := range outputs {
+		clear(e)
+		e[o.unknown] = 1
+		lambda, err := lu.solve(e, true)
+		if err != nil {
+			return nil, err
+		}
+		b := Band{Output: o}
+		sum := 0.0
+		for _, s := range slopes {
+			d := -dot(lambda, s.Slope) * s.Accuracy
+			b.Contributions = append(b.Contributions, Contribution{Link: s.Link, Kind: s.Kind, Accuracy: s.Accuracy, Source: s.Source, DeltaK: d})
+			sum += d * d
+		}
+		b.HalfWidthK = math.Sqrt(sum)
+		sort.SliceStable(b.Contributions, func(i, j int) bool {
+			return math.Abs(b.Contributions[i].DeltaK) > math.Abs(b.Contributions[j].DeltaK)
+		})
+		bands[k] = b
+	}
+	return bands, nil
+}
+
+// outputsOf returns the outputs of a solved point: every node with a
+// limit, and every junction.
+func outputsOf(pt *Point, x []float64) []Output {
+	p := pt.Problem
+	unknownOf := map[int]int{}
+	for u := 0; u < p.Size(); u++ {
+		unknownOf[p.Variable(u)] = u
+	}
+	var out []Output
+	for i, n := range pt.Net.Nodes {
+		u, free := unknownOf[i]
+		if !free || !(n.HasLimit || n.Kind == network.Junction) {
+			continue
+		}
+		o := Output{Node: n.ID, Kind: n.Kind, Temperature: x[u], Limit: n.Limit, HasLimit: n.HasLimit, unknown: u}
+		if n.HasLimit {
+			o.Margin = n.Limit - x[u]
+		}
+		out = append(out, o)
+	}
+	return out
+}
