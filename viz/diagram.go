@@ -26,6 +26,12 @@ type DiagramOptions struct {
 	// Source, when set, draws only the heat of this source (a node with a
 	// heat input) along the arrows it takes (see NewBreakdown).
 	Source string
+	// Compare, when set, adds to each node the temperatures of other
+	// solutions of the same design (variants), labelled by Names, with
+	// their change against the drawn one: one diagram for several
+	// variants (heatgraph compare --graph).
+	Compare []*network.Solution
+	Names   []string
 }
 
 // fadeFraction is the share of the largest arrow below which an arrow is
@@ -315,6 +321,28 @@ func statusWord(n network.NodeResult) string {
 		return "OVER"
 	}
 	return string(n.Status)
+}
+
+// compareLabel adds the other variants' temperatures of node n.
+func compareLabel(label string, n network.NodeResult, opt DiagramOptions) string {
+	for i, s := range opt.Compare {
+		name := fmt.Sprintf("[%d]", i+2)
+		if i+1 < len(opt.Names) {
+			name = opt.Names[i+1]
+		}
+		found := false
+		for _, m := range s.Nodes {
+			if m.ID == n.ID {
+				label += fmt.Sprintf("\n%s %.1f °C (%s K)", name, celsius(m.Temperature), signed(m.Temperature-n.Temperature))
+				found = true
+				break
+			}
+		}
+		if !found {
+			label += fmt.Sprintf("\n%s: not in this variant", name)
+		}
+	}
+	return label
 }
 
 // nodeLabel is the text inside a node.

@@ -100,7 +100,7 @@ func DOTWith(sol *network.Solution, opt DiagramOptions) (string, error) {
 	for _, n := range ds.nodes {
 		fill := nodeFill(n, opt.Colouring, tMin, tMax, steps)
 		attrs := map[string]string{
-			"label":     q(nodeLabel(n, ds.members[n.ID])),
+			"label":     q(compareLabel(nodeLabel(n, ds.members[n.ID]), n, opt)),
 			"shape":     nodeShape(n.Kind),
 			"style":     q("filled,rounded"),
 			"fillcolor": q(fill.hex()),

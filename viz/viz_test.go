@@ -338,3 +338,20 @@ func TestReadXdot(t *testing.T) {
 	_, err = Render(context.Background(), `digraph g { a [label="say \"hi\" \\ 5 W"]; a -> b [label="1 W"] }`, FormatPNG)
 	assert.NoError(t, err)
 }
+
+// A comparison diagram puts every variant's temperature on each node, with
+// its change against the drawn one.
+func TestCompareDiagram(t *testing.T) {
+	a, _ := solveText(t, "a.yaml", small)
+	b, _ := solveText(t, "b.yaml", strings.Replace(small, "resistance: 20 K/W}", "resistance: 10 K/W}", 1))
+	dot, err := DOTWith(a, DiagramOptions{Compare: []*network.Solution{b}, Names: []string{"base", "better"}})
+	require.NoError(t, err)
+	for _, n := range a.Nodes {
+		for _, m := range b.Nodes {
+			if m.ID == n.ID && n.Kind != network.Fixed {
+				want := fmt.Sprintf(`better %.1f °C (%s K)`, celsius(m.Temperature), signed(m.Temperature-n.Temperature))
+				assert.Contains(t, dot, want, n.ID)
+			}
+		}
+	}
+}

@@ -3,6 +3,7 @@ package comparecmd
 
 import (
 	"bytes"
+	"context"
 	"encoding/csv"
 	"fmt"
 	"strconv"
@@ -10,6 +11,7 @@ import (
 	"text/tabwriter"
 
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/graphcmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/pipeline"
 	"github.com/heatgraph/heatgraph/network"
@@ -25,6 +27,9 @@ type Options struct {
 	Set    []string // overrides applied to every model
 	Format string   // text or csv
 	Output string
+	// Graph, when set, also draws one diagram: the first model's heat
+	// paths with every model's temperature on each node.
+	Graph string
 }
 
 // NewCmd returns the compare command.
@@ -54,6 +59,7 @@ model has no solution, 4 when the table could not be written.`,
 	cmd.Flags().StringArrayVar(&o.Set, "set", nil, pipeline.SetHelp)
 	cmd.Flags().StringVarP(&o.Format, "format", "f", "text", "table format: text, csv")
 	cmd.Flags().StringVarP(&o.Output, "output", "o", "", "write the table to this file instead of standard output")
+	cmd.Flags().StringVar(&o.Graph, "graph", "", "also draw one diagram (.dot, .gv, .svg or .png): the first model's heat paths, every model's temperature on each node")
 	return cmd
 }
 
@@ -61,6 +67,14 @@ model has no solution, 4 when the table could not be written.`,
 func Run(o *Options) error {
 	if o.Format != "text" && o.Format != "csv" {
 		return exit.With(exit.BadInput, "--format %q is not a table format (use text, csv)", o.Format)
+	}
+	var format viz.ImageFormat
+	if o.Graph != "" {
+		f, err := viz.FormatFor(o.Graph)
+		if err != nil {
+			return &exit.Error{Code: exit.BadInput, Err: err}
+		}
+		format = f
 	}
 	var sols []*network.Solution
 	code := exit.OK
@@ -183,9 +197,38 @@ func Run(o *Options) error {
 	if err != nil {
 		return err
 	}
+	if o.Graph != "" {
+		if err := o.drawGraph(sols, format); err != nil {
+			return err
+		}
+	}
 	if code != exit.OK {
 		return exit.Silent(code)
 	}
+	return nil
+}
+
+// drawGraph draws the first model's heat paths with every model's
+// temperatures on each node.
+func (o *Options) drawGraph(sols []*network.Solution, format viz.ImageFormat) error {
+	names := make([]string, len(sols))
+	for i := range sols {
+		names[i] = fmt.Sprintf("[%d]", i+1)
+	}
+	dot, err := viz.DOTWith(sols[0], viz.DiagramOptions{Compare: sols[1:], Names: names})
+	if err != nil {
+		return exit.With(exit.Internal, "building the diagram: %v", err)
+	}
+	ctx, cancel := context.WithTimeout(context.Background(), graphcmd.DefaultTimeout)
+	defer cancel()
+	data, err := viz.Render(ctx, dot, format)
+	if err != nil {
+		return exit.With(exit.OutputFailed, "%s: %v", o.Graph, err)
+	}
+	if err := pipeline.WriteFile(o.Graph, data, o.Models...); err != nil {
+		return err
+	}
+	fmt.Fprintf(o.IO.ErrOut, "wrote %s: the heat paths of [1] with the temperatures of every model\n", o.Graph)
 	return nil
 }
 
