@@ -300,3 +300,22 @@ func quoteList(ids []string) string {
 
 // Unknowns returns the number of unknowns the solve finds.
 func (net *Network) Unknowns() int { return len(net.unknown) }
+
+// WithCoefficients returns a copy of the network in which the links named
+// in scale have their correlation's coefficient multiplied by the given
+// factor (links without a correlation coefficient are left as they are):
+// for sampling the correlations' accuracy. The copy shares everything
+// else with net and has the same unknowns and Jacobian pattern.
+func (net *Network) WithCoefficients(scale map[string]float64) *Network {
+	c := *net
+	c.Links = append([]Link(nil), net.Links...)
+	for i, l := range c.Links {
+		if k, ok := scale[l.ID]; ok {
+			if el, scaled := elements.ScaleCoefficient(l.Element, k); scaled {
+				c.Links[i].Element = el
+			}
+		}
+	}
+	c.asm = c.assemble()
+	return &c
+}

@@ -20,13 +20,17 @@ import (
 
 // Options are the inputs of the sensitivity command.
 type Options struct {
-	IO     *iostreams.IOStreams
-	Model  string
-	Set    []string // overrides, PATH=VALUE
-	Nodes  []string // outputs to report; all when empty
-	Top    int      // parameters per output; 0 for all
-	Format string   // text or json
-	Output string
+	IO    *iostreams.IOStreams
+	Model string
+	Set   []string // overrides, PATH=VALUE
+	Nodes []string // outputs to report; all when empty
+	Top   int      // parameters per output; 0 for all
+	// Samples, when positive, also samples the correlations' accuracy by
+	// Monte Carlo with this many samples, from Seed.
+	Samples int
+	Seed    uint64
+	Format  string // text or json
+	Output  string
 }
 
 // NewCmd returns the sensitivity command.
@@ -63,6 +67,8 @@ has no solution, 4 when the report could not be written.`,
 	cmd.Flags().StringArrayVar(&o.Set, "set", nil, pipeline.SetHelp)
 	cmd.Flags().StringArrayVar(&o.Nodes, "node", nil, "report this node only (repeatable); default: every node with a limit and every junction")
 	cmd.Flags().IntVar(&o.Top, "top", 10, "list this many values per node, the largest effect first (0: all)")
+	cmd.Flags().IntVar(&o.Samples, "correlation-samples", 0, "also sample the correlations' accuracy by Monte Carlo with this many samples (text report)")
+	cmd.Flags().Uint64Var(&o.Seed, "seed", 1, "seed of --correlation-samples")
 	cmd.Flags().StringVarP(&o.Format, "format", "f", "text", "report format: text, json")
 	cmd.Flags().StringVarP(&o.Output, "output", "o", "", "write the report to this file instead of standard output")
 	return cmd
@@ -100,7 +106,13 @@ func Run(o *Options) error {
 	if o.Format == "json" {
 		err = writeJSON(&buf, m, s, outputs, o.Top, byNode)
 	} else {
-		err = writeText(&buf, m, s, outputs, o.Top, byNode)
+		var sampled bytes.Buffer
+		if o.Samples > 0 {
+			if err := writeSamples(&sampled, m, o.Samples, o.Seed); err != nil {
+				return err
+			}
+		}
+		err = writeText(&buf, m, s, outputs, o.Top, byNode, sampled.String())
 	}
 	if err != nil {
 		return err
@@ -191,7 +203,7 @@ func StepText(q network.Parameter) string {
 	return "10 %"
 }
 
-func writeText(buf *bytes.Buffer, m *study.Model, s *study.Sensitivities, outputs []int, top int, bands map[string]study.Band) error {
+func writeText(buf *bytes.Buffer, m *study.Model, s *study.Sensitivities, outputs []int, top int, bands map[string]study.Band, sampled string) error {
 	title := s.Point.Net.Model.Title
 	if title == "" {
 		title = m.File
@@ -240,6 +252,7 @@ func writeText(buf *bytes.Buffer, m *study.Model, s *study.Sensitivities, output
 			fmt.Fprintf(buf, "  %s: %s\n", sk.Param.Path, sk.Reason)
 		}
 	}
+	buf.WriteString(sampled)
 	fmt.Fprintf(buf, "\n%s\n", viz.Caution)
 	return nil
 }
@@ -322,4 +335,20 @@ func writeJSON(buf *bytes.Buffer, m *study.Model, s *study.Sensitivities, output
 	enc := json.NewEncoder(buf)
 	enc.SetIndent("", "  ")
 	return enc.Encode(doc)
+}
+
+// writeSamples samples the correlations' accuracy and prints each output's
+// spread beside its first-order band.
+func writeSamples(buf *bytes.Buffer, m *study.Model, n int, seed uint64) error {
+	cs, err := m.CorrelationMonteCarlo(n, seed)
+	if err != nil {
+		return Failed(m.File, err)
+	}
+	fmt.Fprintf(buf, "\nthe correlations' accuracy sampled: %d samples (seed %d), each coefficient times 1 + z·u/2 (the stated ±u taken as two standard deviations)\n", n, seed)
+	tw := tabwriter.NewWriter(buf, 0, 0, 2, ' ', 0)
+	fmt.Fprintln(tw, "  node	solved	P5 [degC]	P50 [degC]	P95 [degC]	σ [K]	first-order σ [K]")
+	for _, c := range cs {
+		fmt.Fprintf(tw, "  %s	%d	%.2f	%.2f	%.2f	%.3f	%.3f\n", c.Output.Node, c.N, degC(c.P5), degC(c.P50), degC(c.P95), c.StdDev, c.FirstOrderSig)
+	}
+	return tw.Flush()
 }
