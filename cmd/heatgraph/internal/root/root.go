@@ -28,7 +28,7 @@ import (
 )
 
 // Version is the program version.
-const Version = "0.1.0"
+const Version = "0.2.0"
 
 // NewCmd returns the root command with every subcommand.
 func NewCmd(ios *iostreams.IOStreams) *cobra.Command {
