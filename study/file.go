@@ -66,16 +66,28 @@ type plotSpec struct {
 func ReadStudy(path string, set []network.Override) (*Study, error) {
 	data, err := os.ReadFile(path)
 	if err != nil {
+		if os.IsNotExist(err) {
+			return nil, fmt.Errorf("%s: no such file", path)
+		}
 		return nil, err
+	}
+	var tree yaml.Node
+	_ = yaml.Unmarshal(data, &tree)
+	if len(tree.Content) == 1 && tree.Content[0].Kind == yaml.MappingNode {
+		top := tree.Content[0]
+		for i := 0; i+1 < len(top.Content); i += 2 {
+			if k := top.Content[i].Value; k == "ambient" || k == "nodes" || k == "links" {
+				return nil, fmt.Errorf("%s:%d: this is a model file, not a study file: a study file names its model (model: box.yaml) and what to vary (sweep: or montecarlo:), see the README's \"Sweeps and tolerances: study files\"; to vary a model from the command line use --vary", path, top.Content[i].Line)
+			}
+		}
 	}
 	var spec fileSpec
 	dec := yaml.NewDecoder(bytes.NewReader(data))
 	dec.KnownFields(true)
 	if err := dec.Decode(&spec); err != nil {
-		return nil, fmt.Errorf("%s: %v", path, err)
+		msg := strings.ReplaceAll(strings.TrimPrefix(err.Error(), "yaml: unmarshal errors:\n  "), "in type study.fileSpec", "(a study file takes model, set, sweep, montecarlo, plot and note)")
+		return nil, fmt.Errorf("%s: %s", path, msg)
 	}
-	var tree yaml.Node
-	_ = yaml.Unmarshal(data, &tree)
 	fail := func(field, format string, args ...any) error {
 		at := path
 		if line := lineOf(&tree, field); line > 0 {

@@ -3,6 +3,7 @@ package study
 import (
 	"os"
 	"path/filepath"
+	"strings"
 	"testing"
 
 	"github.com/stretchr/testify/assert"
@@ -39,5 +40,14 @@ func TestReadStudyProblems(t *testing.T) {
 		}
 		require.Error(t, err, c.text)
 		assert.Contains(t, err.Error(), c.want, c.text)
+	}
+}
+
+// A model file given where a study file is expected is named as such, with
+// the way to a study file or to --vary.
+func TestModelFileIsNotAStudy(t *testing.T) {
+	_, err := ReadStudy("../examples/bench-logger.yaml", nil)
+	if err == nil || !strings.Contains(err.Error(), "this is a model file, not a study file") || !strings.Contains(err.Error(), "--vary") {
+		t.Errorf("err = %v", err)
 	}
 }
