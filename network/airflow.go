@@ -459,5 +459,115 @@ func (m *Model) closedAir() Problems {
 		ps = append(ps, Problem{File: m.File, Line: line[g[0]], Field: "nodes[" + g[0] + "]",
 			Message: fmt.Sprintf("the air of %s is joined by fans and losses to no fixed node or ambient, so its pressure is undetermined (open the path to ambient, e.g. with a loss link, or give a fixed node a pressure)", quoteList(g))})
 	}
+	if len(ps) == 0 {
+		ps = append(ps, m.deadEnds(kind, line)...)
+	}
 	return ps
+}
+
+// deadEnds reports the air nodes of a solved flow network that air can
+// reach by one way only: every path from them to a fixed node or ambient
+// crosses one branch (a bridge of the graph of solved branches, with every
+// fixed node taken as one), so by mass conservation no air flows through
+// them, and heat given to their air has nowhere to go with it. A fan
+// blowing into a box with no outlet is the usual cause.
+func (m *Model) deadEnds(kind map[string]NodeKind, line map[string]int) Problems {
+	const outside = "\x00outside"
+	name := func(id string) string {
+		if kind[id] == Fixed {
+			return outside
+		}
+		return id
+	}
+	type edge struct{ a, b string }
+	var edges []edge
+	adj := map[string][]int{}
+	add := func(up, down string) {
+		a, b := name(up), name(down)
+		if a == b {
+			return
+		}
+		adj[a] = append(adj[a], len(edges))
+		adj[b] = append(adj[b], len(edges))
+		edges = append(edges, edge{a, b})
+	}
+	solved := 0
+	for i := range m.Links {
+		l := &m.Links[i]
+		switch {
+		case l.solvedBranch():
+			add(l.branchEnds())
+			solved++
+		default:
+			// A given flow moves air too.
+			if up, down, _, ok := l.airflow(); ok {
+				add(up, down)
+			}
+		}
+	}
+	if solved == 0 || adj[outside] == nil {
+		return nil
+	}
+	// Bridges by depth-first search (Tarjan 1974): an edge to a child
+	// whose subtree reaches no earlier node.
+	order, low := map[string]int{}, map[string]int{}
+	bridge := make([]bool, len(edges))
+	n := 0
+	var visit func(v string, via int)
+	visit = func(v string, via int) {
+		order[v], low[v] = n, n
+		n++
+		for _, e := range adj[v] {
+			if e == via {
+				continue
+			}
+			w := edges[e].a
+			if w == v {
+				w = edges[e].b
+			}
+			if _, seen := order[w]; !seen {
+				visit(w, e)
+				low[v] = min(low[v], low[w])
+				if low[w] > order[v] {
+					bridge[e] = true
+				}
+			} else {
+				low[v] = min(low[v], order[w])
+			}
+		}
+	}
+	visit(outside, -1)
+	// The nodes still joined to the outside without the bridges carry
+	// air; the others are dead ends.
+	reach := map[string]bool{outside: true}
+	stack := []string{outside}
+	for len(stack) > 0 {
+		v := stack[len(stack)-1]
+		stack = stack[:len(stack)-1]
+		for _, e := range adj[v] {
+			if bridge[e] {
+				continue
+			}
+			w := edges[e].a
+			if w == v {
+				w = edges[e].b
+			}
+			if !reach[w] {
+				reach[w] = true
+				stack = append(stack, w)
+			}
+		}
+	}
+	var dead []string
+	for v := range adj {
+		if !reach[v] && kind[v] == Air {
+			dead = append(dead, v)
+		}
+	}
+	if len(dead) == 0 {
+		return nil
+	}
+	sort.Slice(dead, func(a, b int) bool { return line[dead[a]] < line[dead[b]] })
+	return Problems{{File: m.File, Line: line[dead[0]], Field: "nodes[" + dead[0] + "]",
+		Message: fmt.Sprintf("air can reach %s by one way only, so no air flows through it and its heat cannot leave with the air (give it an outlet: a loss, vent or stream to ambient or to another air node)", quoteList(dead))}}
 }
