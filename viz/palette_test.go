@@ -98,7 +98,8 @@ func TestMarginColoursLightnessSteps(t *testing.T) {
 
 // The simulation itself: a grey is its own image (each row of a Machado
 // matrix sums to 1), and pure red and green, far apart in normal vision,
-// come out close in hue for a deuteranope: a check of the transcription.
+// come out close in hue for a deuteranope: a check that the matrices were
+// copied into the code correctly.
 func TestMachadoSimulation(t *testing.T) {
 	for _, m := range [][3][3]float64{machadoDeuteranopia, machadoProtanopia} {
 		for _, row := range m {
