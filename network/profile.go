@@ -17,6 +17,8 @@ type Profile interface {
 	Jumps(from, to float64) []float64
 	// Describe says what the profile is, in a few words.
 	Describe() string
+	// Range returns the lowest and the highest value the profile takes.
+	Range() (lo, hi float64)
 }
 
 // StepProfile is Before until At, After from At on.
@@ -248,46 +250,42 @@ func (net *Network) Profiles() bool { return len(net.profiles) > 0 }
 // profileLowest returns the lowest value a profile takes (the constant c
 // when p is nil).
 func profileLowest(p Profile, c float64) float64 {
-	switch v := p.(type) {
-	case nil:
+	if p == nil {
 		return c
-	case *StepProfile:
-		return min(v.Before, v.After)
-	case *PulseProfile:
-		return min(v.Base, v.Peak)
-	case *DutyProfile:
-		return min(v.On, v.Off)
-	case *TableProfile:
-		low := v.V[0]
-		for _, x := range v.V {
-			low = min(low, x)
-		}
-		return low
-	case *RepeatProfile:
-		return profileLowest(v.Of, c)
 	}
-	panic(fmt.Sprintf("network: profile %T has no lowest value", p))
+	lo, _ := p.Range()
+	return lo
 }
 
-// profileHighest returns the highest value a profile takes.
+// profileHighest returns the highest value a profile takes (the constant
+// c when p is nil).
 func profileHighest(p Profile, c float64) float64 {
-	switch v := p.(type) {
-	case nil:
+	if p == nil {
 		return c
-	case *StepProfile:
-		return max(v.Before, v.After)
-	case *PulseProfile:
-		return max(v.Base, v.Peak)
-	case *DutyProfile:
-		return max(v.On, v.Off)
-	case *TableProfile:
-		high := v.V[0]
-		for _, x := range v.V {
-			high = max(high, x)
-		}
-		return high
-	case *RepeatProfile:
-		return profileHighest(v.Of, c)
 	}
-	panic(fmt.Sprintf("network: profile %T has no highest value", p))
+	_, hi := p.Range()
+	return hi
 }
+
+// Range implements Profile.
+func (p *StepProfile) Range() (float64, float64) {
+	return min(p.Before, p.After), max(p.Before, p.After)
+}
+
+// Range implements Profile.
+func (p *PulseProfile) Range() (float64, float64) { return min(p.Base, p.Peak), max(p.Base, p.Peak) }
+
+// Range implements Profile.
+func (p *DutyProfile) Range() (float64, float64) { return min(p.On, p.Off), max(p.On, p.Off) }
+
+// Range implements Profile.
+func (p *TableProfile) Range() (float64, float64) {
+	lo, hi := p.V[0], p.V[0]
+	for _, x := range p.V {
+		lo, hi = min(lo, x), max(hi, x)
+	}
+	return lo, hi
+}
+
+// Range implements Profile.
+func (p *RepeatProfile) Range() (float64, float64) { return p.Of.Range() }

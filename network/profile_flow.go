@@ -23,6 +23,13 @@ func (p *scaledProfile) At(t float64) float64 { return p.Factor * p.Of.At(t) }
 // Jumps implements Profile.
 func (p *scaledProfile) Jumps(from, to float64) []float64 { return p.Of.Jumps(from, to) }
 
+// Range implements Profile.
+func (p *scaledProfile) Range() (float64, float64) {
+	lo, hi := p.Of.Range()
+	lo, hi = p.Factor*lo, p.Factor*hi
+	return min(lo, hi), max(lo, hi)
+}
+
 // Describe implements Profile.
 func (p *scaledProfile) Describe() string {
 	return fmt.Sprintf("%s, times %g", p.Of.Describe(), p.Factor)

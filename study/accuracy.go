@@ -51,6 +51,12 @@ func (m *Model) Accuracy() ([]Band, error) {
 	if err != nil {
 		return nil, err
 	}
+	return AccuracyAt(pt)
+}
+
+// AccuracyAt is Accuracy at a point already solved (the Point of a
+// Sensitivities, say), without solving again.
+func AccuracyAt(pt *Point) ([]Band, error) {
 	p := pt.Problem
 	x := pt.Result.X
 	slopes, err := p.CoefficientSlopes(x)
@@ -133,11 +139,11 @@ type CorrelationSample struct {
 // with (seed, i), so results do not depend on the order samples run in.
 // It returns each output's statistics beside the first-order band.
 func (m *Model) CorrelationMonteCarlo(samples int, seed uint64) ([]CorrelationSample, error) {
-	bands, err := m.Accuracy()
+	pt, err := m.Solve()
 	if err != nil {
 		return nil, err
 	}
-	pt, err := m.Solve()
+	bands, err := AccuracyAt(pt)
 	if err != nil {
 		return nil, err
 	}

@@ -76,24 +76,9 @@ func (m *Model) Sensitivity() (*Sensitivities, error) {
 	if err != nil {
 		return nil, err
 	}
-	s := &Sensitivities{Point: pt}
 	p := pt.Problem
 	x := pt.Result.X
-	unknownOf := map[int]int{}
-	for u := 0; u < p.Size(); u++ {
-		unknownOf[p.Variable(u)] = u
-	}
-	for i, n := range pt.Net.Nodes {
-		u, free := unknownOf[i]
-		if !free || !(n.HasLimit || n.Kind == network.Junction) {
-			continue
-		}
-		o := Output{Node: n.ID, Kind: n.Kind, Temperature: x[u], Limit: n.Limit, HasLimit: n.HasLimit, unknown: u}
-		if n.HasLimit {
-			o.Margin = n.Limit - x[u]
-		}
-		s.Outputs = append(s.Outputs, o)
-	}
+	s := &Sensitivities{Point: pt, Outputs: outputsOf(pt, x)}
 	jac := p.Pattern()
 	f0 := make([]float64, p.Size())
 	if err := p.Evaluate(x, f0, jac, nil); err != nil {

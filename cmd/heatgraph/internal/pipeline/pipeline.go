@@ -37,13 +37,23 @@ func Load(path string, sets ...string) (*network.Network, error) {
 	}
 	net, err := network.LoadWith(path, ovs)
 	if err != nil {
-		var ps network.Problems
-		if errors.As(err, &ps) {
-			return nil, &exit.Error{Code: exit.BadInput, Err: ps}
-		}
-		return nil, &exit.Error{Code: exit.BadInput, Err: err}
+		return nil, BadInput(err, "")
 	}
 	return net, nil
+}
+
+// BadInput turns an error from reading a model or a study into an
+// exit.Error with code BadInput: a list of problems as it is, any other
+// error after the name of the file it concerns (when file is not "").
+func BadInput(err error, file string) error {
+	var ps network.Problems
+	if errors.As(err, &ps) {
+		return &exit.Error{Code: exit.BadInput, Err: ps}
+	}
+	if file != "" {
+		err = fmt.Errorf("%s: %w", file, err)
+	}
+	return &exit.Error{Code: exit.BadInput, Err: err}
 }
 
 // Solve loads a model with the overrides sets and solves it for the

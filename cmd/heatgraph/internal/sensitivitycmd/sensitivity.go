@@ -94,7 +94,7 @@ func Run(o *Options) error {
 	if err != nil {
 		return err
 	}
-	bands, err := m.Accuracy()
+	bands, err := study.AccuracyAt(s.Point)
 	if err != nil {
 		return Failed(o.Model, err)
 	}
@@ -134,11 +134,7 @@ func Open(path string, sets []string) (*study.Model, error) {
 	}
 	m, err := study.Open(path, ovs)
 	if err != nil {
-		var ps network.Problems
-		if errors.As(err, &ps) {
-			return nil, &exit.Error{Code: exit.BadInput, Err: ps}
-		}
-		return nil, &exit.Error{Code: exit.BadInput, Err: fmt.Errorf("%s: %w", path, err)}
+		return nil, pipeline.BadInput(err, path)
 	}
 	return m, nil
 }

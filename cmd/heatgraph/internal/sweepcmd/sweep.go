@@ -4,7 +4,6 @@ package sweepcmd
 
 import (
 	"bytes"
-	"errors"
 	"fmt"
 	"os"
 	"strconv"
@@ -92,11 +91,7 @@ func ReadStudy(path string, sets []string) (*study.Study, error) {
 	}
 	st, err := study.ReadStudy(path, ovs)
 	if err != nil {
-		var ps network.Problems
-		if errors.As(err, &ps) {
-			return nil, &exit.Error{Code: exit.BadInput, Err: ps}
-		}
-		return nil, &exit.Error{Code: exit.BadInput, Err: err}
+		return nil, pipeline.BadInput(err, "")
 	}
 	return st, nil
 }
@@ -157,11 +152,7 @@ func fromFlags(o *Options) (*study.Study, error) {
 	}
 	m, err := study.Open(o.Study, ovs)
 	if err != nil {
-		var ps network.Problems
-		if errors.As(err, &ps) {
-			return nil, &exit.Error{Code: exit.BadInput, Err: ps}
-		}
-		return nil, exit.With(exit.BadInput, "%s: %v", o.Study, err)
+		return nil, pipeline.BadInput(err, o.Study)
 	}
 	st := &study.Study{File: o.Study, Model: m, PlotX: o.PlotX, PlotNodes: o.PlotNodes}
 	for _, v := range o.Vary {
