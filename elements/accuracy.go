@@ -11,11 +11,9 @@ type Uncertain interface {
 	// of its coefficient (0.1 for ±10 %), and where that figure comes
 	// from, at s.
 	Accuracy(s *State) (float64, string)
-	// CoefficientSlope adds to l.R, for each of the element's rows, the
-	// derivative of its flow with respect to the logarithm of its
-	// coefficient, ∂R/∂ln h, at s: how much the flows change when h is
-	// off by a fraction.
-	CoefficientSlope(s *State, l *Local)
+	// ScaledBy returns a copy of the element with its coefficient
+	// multiplied by k.
+	ScaledBy(k float64) Element
 }
 
 // slopeStep is the relative change of a coefficient in CoefficientSlope's
@@ -24,10 +22,12 @@ type Uncertain interface {
 // far below the accuracies the slopes are multiplied by.
 const slopeStep = 1e-5
 
-// coefficientSlope adds (R(h·(1+δ)) − R(h·(1−δ)))/(2δ) to l.R, with
-// scaled(k) the element with its coefficient multiplied by k.
-func coefficientSlope(s *State, l *Local, scaled func(k float64) Element) {
-	up, down := scaled(1+slopeStep), scaled(1-slopeStep)
+// CoefficientSlope adds to l.R, for each of u's rows, the derivative of
+// its flow with respect to the logarithm of its coefficient, ∂R/∂ln h, at
+// s (how much the flows change when h is off by a fraction): the central
+// difference (R(h·(1+δ)) − R(h·(1−δ)))/(2δ).
+func CoefficientSlope(u Uncertain, s *State, l *Local) {
+	up, down := u.ScaledBy(1+slopeStep), u.ScaledBy(1-slopeStep)
 	n := len(l.R)
 	lu := NewLocal(n, len(up.Vars()), false)
 	ld := NewLocal(n, len(down.Vars()), false)
@@ -42,19 +42,8 @@ func coefficientSlope(s *State, l *Local, scaled func(k float64) Element) {
 // multiplied by k, for what-if studies and for checking accuracy bands by
 // solving again; ok is false when e has no such coefficient.
 func ScaleCoefficient(e Element, k float64) (scaled Element, ok bool) {
-	switch el := e.(type) {
-	case *Natural:
-		c := *el
-		c.hScale = k * el.scale()
-		return &c, true
-	case *FlatPlate:
-		c := *el
-		c.hScale = k * el.scale()
-		return &c, true
-	case *Channel:
-		c := *el
-		c.hScale = k * el.scale()
-		return &c, true
+	if u, is := e.(Uncertain); is {
+		return u.ScaledBy(k), true
 	}
 	return e, false
 }

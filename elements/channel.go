@@ -334,7 +334,5 @@ func (c *Channel) Accuracy(s *State) (float64, string) {
 	return 0.05, "laminar fully developed flow (Shah & London 1978): exact for the ideal duct; ±5 % for manufacturing tolerances of the gaps (rule of thumb)"
 }
 
-// CoefficientSlope adds ∂R/∂ln h.
-func (c *Channel) CoefficientSlope(s *State, l *Local) {
-	coefficientSlope(s, l, func(k float64) Element { cc := *c; cc.hScale = k; return &cc })
-}
+// ScaledBy returns a copy with h multiplied by k.
+func (c *Channel) ScaledBy(k float64) Element { cc := *c; cc.hScale = k * c.scale(); return &cc }

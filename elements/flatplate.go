@@ -59,10 +59,8 @@ func (f *FlatPlate) Accuracy(s *State) (float64, string) {
 	return 0.10, "laminar flat plate (Incropera eq. 7.30): exact for the similarity solution; about ±10 % for a real wall in a draught (from memory)"
 }
 
-// CoefficientSlope adds ∂R/∂ln h.
-func (f *FlatPlate) CoefficientSlope(s *State, l *Local) {
-	coefficientSlope(s, l, func(k float64) Element { c := *f; c.hScale = k; return &c })
-}
+// ScaledBy returns a copy with h multiplied by k.
+func (f *FlatPlate) ScaledBy(k float64) Element { c := *f; c.hScale = k * f.scale(); return &c }
 
 // Rows returns Surface and Air.
 func (f *FlatPlate) Rows() []int { return []int{f.Surface, f.Air} }

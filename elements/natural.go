@@ -91,11 +91,8 @@ func (n *Natural) Accuracy(s *State) (float64, string) {
 	return 0.20, "horizontal plates (Lloyd & Moran 1974; Incropera eq. 9.32): about ±20 % (from memory)"
 }
 
-// CoefficientSlope adds ∂R/∂ln h: how the element's flows change with its
-// coefficient.
-func (n *Natural) CoefficientSlope(s *State, l *Local) {
-	coefficientSlope(s, l, func(k float64) Element { c := *n; c.hScale = k; return &c })
-}
+// ScaledBy returns a copy with h multiplied by k.
+func (n *Natural) ScaledBy(k float64) Element { c := *n; c.hScale = k * n.scale(); return &c }
 
 // NewNatural checks and returns a natural-convection link.
 func NewNatural(surface, airNode int, o Orientation, area, length float64, fins Fins) (*Natural, error) {

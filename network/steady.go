@@ -188,7 +188,7 @@ func (p *Steady) CoefficientSlopes(x []float64) ([]CoefficientSlope, error) {
 		}
 		rows := u.Rows()
 		loc := elements.NewLocal(len(rows), len(u.Vars()), false)
-		u.CoefficientSlope(&p.state, loc)
+		elements.CoefficientSlope(u, &p.state, loc)
 		acc, src := u.Accuracy(&p.state)
 		cs := CoefficientSlope{Link: l.ID, Kind: l.Kind, Accuracy: acc, Source: src, Slope: make([]float64, p.Size())}
 		for r, v := range rows {
