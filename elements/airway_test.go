@@ -8,49 +8,11 @@ import (
 
 	"github.com/heatgraph/heatgraph/elements/dual"
 	"github.com/heatgraph/heatgraph/elements/duct"
-	"gonum.org/v1/gonum/diff/fd"
-	"gonum.org/v1/gonum/mat"
 )
 
 // flowEnv is an environment with the enthalpy of air in it (testEnv has
 // none): 20 °C ambient, c_p of air there (Incropera et al., Table A.4).
 var flowEnv = &Env{Pressure: 101325, Gravity: StandardGravity, AmbientT: 293.15, AirCp: 1007}
-
-// checkJacobianIn is checkJacobian in the environment env.
-func checkJacobianIn(t *testing.T, name string, env *Env, el Element, x []float64, tol float64) {
-	t.Helper()
-	n := len(x)
-	got := stampAt(el, env, x).jac
-	sc := make([]float64, n)
-	y0 := make([]float64, n)
-	for j, v := range x {
-		sc[j] = math.Max(math.Abs(v), 1e-12)
-		y0[j] = v / sc[j]
-	}
-	want := mat.NewDense(n, n, nil)
-	xs := make([]float64, n)
-	fd.Jacobian(want, func(q, y []float64) {
-		for j := range y {
-			xs[j] = y[j] * sc[j]
-		}
-		copy(q, stampAt(el, env, xs).q)
-	}, y0, &fd.JacobianSettings{Formula: fd.Central, Step: 1e-6})
-	for j := 0; j < n; j++ {
-		col := 0.0
-		for i := 0; i < n; i++ {
-			want.Set(i, j, want.At(i, j)/sc[j])
-			col = math.Max(col, math.Abs(want.At(i, j)))
-		}
-		if col == 0 {
-			col = 1
-		}
-		for i := 0; i < n; i++ {
-			if d := math.Abs(got.At(i, j) - want.At(i, j)); d > tol*col {
-				t.Errorf("%s: ∂q%d/∂x%d = %.10g, finite difference %.10g", name, i, j, got.At(i, j), want.At(i, j))
-			}
-		}
-	}
-}
 
 // A branch's variables in these tests: T_a, T_b, p_a, p_b, ṁ.
 func testBranch(law FlowLaw) *Combined {

@@ -41,8 +41,14 @@ var testEnv = &Env{Pressure: 101325, Gravity: StandardGravity}
 // each column.
 func checkJacobian(t *testing.T, name string, el Element, x []float64, tol float64) {
 	t.Helper()
+	checkJacobianIn(t, name, testEnv, el, x, tol)
+}
+
+// checkJacobianIn is checkJacobian in the environment env.
+func checkJacobianIn(t *testing.T, name string, env *Env, el Element, x []float64, tol float64) {
+	t.Helper()
 	n := len(x)
-	got := stampAt(el, testEnv, x).jac
+	got := stampAt(el, env, x).jac
 	sc := make([]float64, n)
 	y0 := make([]float64, n)
 	for j, v := range x {
@@ -55,7 +61,7 @@ func checkJacobian(t *testing.T, name string, el Element, x []float64, tol float
 		for j := range y {
 			xs[j] = y[j] * sc[j]
 		}
-		copy(q, stampAt(el, testEnv, xs).q)
+		copy(q, stampAt(el, env, xs).q)
 	}, y0, &fd.JacobianSettings{Formula: fd.Central, Step: 1e-6})
 	for j := 0; j < n; j++ {
 		col := 0.0
