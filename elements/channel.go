@@ -215,28 +215,22 @@ func (c *Channel) Eval(s *State, l *Local) {
 	// ∂q/∂T_m, shared by inlet and outlet through T_m = (T_in + T_out)/2.
 	dqm := mc * cs.eff.D * dT / 2
 	dqw, dqi, dqo := mc*cs.eff.V, -mc*cs.eff.V+dqm, dqm
+	l.D(0, 0, -dqw)
+	l.D(0, 1, -dqi)
+	l.D(0, 2, -dqo)
+	l.D(1, 1, -mc)
+	l.D(2, 0, dqw)
+	l.D(2, 1, mc+dqi)
+	l.D(2, 2, dqo)
 	if !l.Needs(3) {
-		l.D(0, 0, -dqw)
-		l.D(0, 1, -dqi)
-		l.D(0, 2, -dqo)
-		l.D(1, 1, -mc)
-		l.D(2, 0, dqw)
-		l.D(2, 1, mc+dqi)
-		l.D(2, 2, dqo)
+		// The flow is given: its derivatives are not used.
 		return
 	}
 	byFlow, _ := c.eval(s, seedFlow)
 	dqf := s.Env.AirCp * dT * (cs.eff.V + m*byFlow.eff.D)
 	dhf := s.Env.AirCp * rise
-	l.D(0, 0, -dqw)
-	l.D(0, 1, -dqi)
-	l.D(0, 2, -dqo)
 	l.D(0, 3, -dqf)
-	l.D(1, 1, -mc)
 	l.D(1, 3, -dhf)
-	l.D(2, 0, dqw)
-	l.D(2, 1, mc+dqi)
-	l.D(2, 2, dqo)
 	l.D(2, 3, dhf+dqf)
 }
 
