@@ -56,16 +56,60 @@ type Element interface {
 	Eval(s *State, l *Local)
 }
 
+// Patterned is implemented by elements with many rows whose derivatives
+// are sparse, such as a meshed plate of a million cells: instead of the
+// dense block of rows × vars, the element names its Jacobian entries once,
+// and Eval (and Stored, for a Storage) writes the derivative of entry k to
+// l.J[k] directly. Entry k is row ER[k] of Rows, var EV[k] of Vars;
+// several entries may name the same position, and their values add up.
+type Patterned interface {
+	Element
+	// Entries returns the positions of the entries, in Rows and Vars.
+	Entries() (er, ev []int32)
+}
+
 // Local is an element's private view of the residual and the Jacobian:
-// R[r] for its rows and a dense block of derivatives, rows by vars.
+// R[r] for its rows and a dense block of derivatives, rows by vars (or,
+// for a Patterned element, one value per entry).
 type Local struct {
 	R  []float64 // one per row
-	J  []float64 // rows × vars, row-major; nil when no derivatives are wanted
+	J  []float64 // rows × vars, row-major (entries, if Patterned); nil when no derivatives are wanted
 	NV int       // number of vars
 	// Given, when not nil, marks the vars that are given rather than
 	// unknown: their derivatives are not used, and an element may skip
 	// the work of computing them.
 	Given []bool
+}
+
+// NewPatternedLocal returns a Local for a Patterned element of nr rows, nv
+// vars and ne entries, with derivatives when jac is true.
+func NewPatternedLocal(nr, nv, ne int, jac bool) *Local {
+	l := &Local{R: make([]float64, nr), NV: nv}
+	if jac {
+		l.J = make([]float64, ne)
+	}
+	return l
+}
+
+// ResetEntries zeroes the local values and sizes them for a Patterned
+// element of nr rows, nv vars and ne entries, reusing the storage.
+func (l *Local) ResetEntries(nr, nv, ne int, jac bool) {
+	if cap(l.R) < nr {
+		l.R = make([]float64, nr)
+	}
+	l.R = l.R[:nr]
+	clear(l.R)
+	l.NV = nv
+	l.Given = nil
+	if !jac {
+		l.J = nil
+		return
+	}
+	if cap(l.J) < ne {
+		l.J = make([]float64, ne)
+	}
+	l.J = l.J[:ne]
+	clear(l.J)
 }
 
 // Needs reports whether the derivatives with respect to var v are used.
@@ -84,22 +128,7 @@ func NewLocal(nr, nv int, jac bool) *Local {
 // Reset zeroes the local values and sizes them for nr rows and nv vars,
 // reusing the storage.
 func (l *Local) Reset(nr, nv int, jac bool) {
-	if cap(l.R) < nr {
-		l.R = make([]float64, nr)
-	}
-	l.R = l.R[:nr]
-	clear(l.R)
-	l.NV = nv
-	l.Given = nil
-	if !jac {
-		l.J = nil
-		return
-	}
-	if cap(l.J) < nr*nv {
-		l.J = make([]float64, nr*nv)
-	}
-	l.J = l.J[:nr*nv]
-	clear(l.J)
+	l.ResetEntries(nr, nv, nr*nv, jac)
 }
 
 // Add adds v to row r.

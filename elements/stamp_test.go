@@ -20,6 +20,19 @@ func stampAt(el Element, env *Env, x []float64) *recorder {
 	n := len(x)
 	r := &recorder{q: make([]float64, n), jac: mat.NewDense(n, n, nil)}
 	rows, vars := el.Rows(), el.Vars()
+	if p, ok := el.(Patterned); ok {
+		er, ev := p.Entries()
+		l := NewPatternedLocal(len(rows), len(vars), len(er), true)
+		el.Eval(&State{X: x, Env: env}, l)
+		for a, i := range rows {
+			r.q[i] += l.R[a]
+		}
+		for k := range er {
+			i, j := rows[er[k]], vars[ev[k]]
+			r.jac.Set(i, j, r.jac.At(i, j)+l.J[k])
+		}
+		return r
+	}
 	l := NewLocal(len(rows), len(vars), true)
 	el.Eval(&State{X: x, Env: env}, l)
 	for a, i := range rows {

@@ -11,7 +11,9 @@ import (
 // once: evaluation only writes values. For element e, its rows are
 // rows[rowStart[e]:rowStart[e+1]] (variables) and the position in the
 // Jacobian's values of its entry (row a, var b) is
-// slots[slotStart[e] + a·nv + b], or −1 where the row or the var is given.
+// slots[slotStart[e] + a·nv + b], or −1 where the row or the var is given;
+// for a Patterned element, the position of its entry k is
+// slots[slotStart[e] + k].
 type assembly struct {
 	elems     []elements.Element
 	rowStart  []int32
@@ -25,6 +27,7 @@ type assembly struct {
 	maxR      int
 	maxV      int
 	storing   []int // indices of elements that implement elements.Storage
+	entries   []int // per element, its number of entries if Patterned, else −1
 }
 
 // allElements returns every element: heat inputs, heat capacities, then
@@ -45,19 +48,36 @@ func (net *Network) assemble() *assembly {
 	a := &assembly{elems: net.allElements()}
 	n := len(net.unknown)
 	b := sparse.NewBuilder(n)
-	type block struct{ rows, vars []int }
+	type block struct {
+		rows, vars []int
+		er, ev     []int32 // entries of a Patterned element
+	}
 	blocks := make([]block, len(a.elems))
+	a.entries = make([]int, len(a.elems))
 	for e, el := range a.elems {
 		rows, vars := el.Rows(), el.Vars()
-		blocks[e] = block{rows, vars}
-		for _, r := range rows {
-			fr := net.free[r]
-			if fr < 0 {
-				continue
-			}
-			for _, v := range vars {
-				if fv := net.free[v]; fv >= 0 {
+		blocks[e] = block{rows: rows, vars: vars}
+		a.entries[e] = -1
+		if p, ok := el.(elements.Patterned); ok {
+			er, ev := p.Entries()
+			blocks[e].er, blocks[e].ev = er, ev
+			a.entries[e] = len(er)
+			for k := range er {
+				fr, fv := net.free[rows[er[k]]], net.free[vars[ev[k]]]
+				if fr >= 0 && fv >= 0 {
 					b.Mark(fr, fv)
+				}
+			}
+		} else {
+			for _, r := range rows {
+				fr := net.free[r]
+				if fr < 0 {
+					continue
+				}
+				for _, v := range vars {
+					if fv := net.free[v]; fv >= 0 {
+						b.Mark(fr, fv)
+					}
 				}
 			}
 		}
@@ -78,10 +98,24 @@ func (net *Network) assemble() *assembly {
 			a.given = append(a.given, net.free[v] < 0)
 		}
 		a.rowStart[e+1] = a.rowStart[e] + int32(len(bl.rows))
-		a.slotStart[e+1] = a.slotStart[e] + int32(len(bl.rows)*len(bl.vars))
 		a.nvars[e] = int32(len(bl.vars))
 		for _, r := range bl.rows {
 			a.rows = append(a.rows, int32(r))
+		}
+		if bl.er != nil || a.entries[e] >= 0 {
+			a.slotStart[e+1] = a.slotStart[e] + int32(len(bl.er))
+			for k := range bl.er {
+				slot := -1
+				fr, fv := net.free[bl.rows[bl.er[k]]], net.free[bl.vars[bl.ev[k]]]
+				if fr >= 0 && fv >= 0 {
+					slot = a.pattern.Index(fr, fv)
+				}
+				a.slots = append(a.slots, int32(slot))
+			}
+			continue
+		}
+		a.slotStart[e+1] = a.slotStart[e] + int32(len(bl.rows)*len(bl.vars))
+		for _, r := range bl.rows {
 			fr := net.free[r]
 			for _, v := range bl.vars {
 				slot := -1
@@ -117,9 +151,7 @@ func (ev *evaluator) eval(s *elements.State, sum, mag []float64, jac *sparse.Mat
 	a := ev.a
 	l := &ev.local
 	for e, el := range a.elems {
-		r0, r1 := a.rowStart[e], a.rowStart[e+1]
-		nv := int(a.nvars[e])
-		l.Reset(int(r1-r0), nv, jac != nil)
+		a.reset(l, e, jac != nil)
 		l.Given = a.given[a.varStart[e]:a.varStart[e+1]]
 		el.Eval(s, l)
 		ev.scatter(e, sum, mag, jac)
@@ -136,11 +168,21 @@ func (ev *evaluator) stored(s *elements.State, sum []float64, jac *sparse.Matrix
 	a := ev.a
 	l := &ev.local
 	for _, e := range a.storing {
-		r0, r1 := a.rowStart[e], a.rowStart[e+1]
-		l.Reset(int(r1-r0), int(a.nvars[e]), jac != nil)
+		a.reset(l, e, jac != nil)
+		l.Given = a.given[a.varStart[e]:a.varStart[e+1]]
 		a.elems[e].(elements.Storage).Stored(s, l)
 		ev.scatter(e, sum, nil, jac)
 	}
+}
+
+// reset sizes and zeroes l for element e.
+func (a *assembly) reset(l *elements.Local, e int, jac bool) {
+	nr, nv := int(a.rowStart[e+1]-a.rowStart[e]), int(a.nvars[e])
+	if ne := a.entries[e]; ne >= 0 {
+		l.ResetEntries(nr, nv, ne, jac)
+		return
+	}
+	l.Reset(nr, nv, jac)
 }
 
 // scatter adds element e's local values into the sums and the Jacobian.
