@@ -82,6 +82,7 @@ type Solution struct {
 	Nodes    []NodeResult
 	Links    []LinkResult
 	Branches []BranchResult // every link that carries air: its flow, pressures and, for a fan, its operating point
+	Plates   []PlateResult  // every meshed plate: its hottest cell, mean, joins and cells
 	Balance  Balance
 	Residual Residual
 	Warnings []string
