@@ -149,6 +149,7 @@ func (p *Plate) evalCells(s *State, l *Local, c0, c1 int, acc *plateAcc, needN [
 		tn := s.X[jn.node]
 		wantN := l.J != nil && needN[jn.pos]
 		qsum, nn := 0.0, 0.0
+		diag := diagCursor{p: p, end: -1}
 		switch jn.kind {
 		case joinLinear:
 			for q := lo; q < hi; q++ {
@@ -158,7 +159,7 @@ func (p *Plate) evalCells(s *State, l *Local, c0, c1 int, acc *plateAcc, needN [
 				l.R[c] -= f
 				qsum += f
 				if l.J != nil {
-					l.J[p.diagEntry(c)] -= g
+					l.J[diag.at(c)] -= g
 					l.J[jn.entry+2*q+1] += g
 					if wantN {
 						l.J[jn.entry+2*q] += g
@@ -179,7 +180,7 @@ func (p *Plate) evalCells(s *State, l *Local, c0, c1 int, acc *plateAcc, needN [
 				qsum += f
 				if l.J != nil {
 					dc := 4 * sh * tc3
-					l.J[p.diagEntry(c)] -= dc
+					l.J[diag.at(c)] -= dc
 					l.J[jn.entry+2*q+1] += dc
 					if wantN {
 						dn := 4 * sh * tn3
@@ -192,6 +193,27 @@ func (p *Plate) evalCells(s *State, l *Local, c0, c1 int, acc *plateAcc, needN [
 		acc.r[jn.pos] += qsum
 		acc.nn[ji] += nn
 	}
+}
+
+// diagCursor finds the diagonal entries of cells in increasing order,
+// dividing only when a cell is on a new line.
+type diagCursor struct {
+	p                 *Plate
+	first, end, start int // the line's first cell, one past its last, its first entry
+	e                 int // the line's entries per cell besides x neighbours
+}
+
+// at returns the entry of cell c's diagonal.
+func (d *diagCursor) at(c int) int {
+	if c < d.first || c >= d.end {
+		p := d.p
+		line := c / p.NX
+		k := line / p.NY
+		d.first, d.end = line*p.NX, (line+1)*p.NX
+		d.start, d.e = p.lineStart[line], p.perCell(line-k*p.NY, k)
+	}
+	i := c - d.first
+	return d.start + i*d.e + max(i-1, 0) + min(i, d.p.NX-1)
 }
 
 // lineGeometry returns what the cells of a line share: the conductances to
