@@ -759,3 +759,61 @@ func BenchmarkPlateEval(b *testing.B) {
 		})
 	}
 }
+
+// A 1.6 mm board of FR-4 (in-plane 1.059, through 0.343 W/(m K), Sarvar,
+// Poole & Witting 1990), two full 35 µm planes and two 35 µm signal layers
+// of 20 % coverage, computed by hand with k_Cu = 398:
+// laminate 1.6 − 4·0.035 = 1.46 mm;
+// in-plane (398·0.07 + (0.2·398 + 0.8·1.059)·0.07 + 1.059·1.46)/1.6
+// = (27.86 + 5.6313 + 1.5461)/1.6 = 21.898 W/(m K);
+// a signal layer through the thickness 1/(0.2/398 + 0.8/0.343) = 0.42866,
+// so through-plane 1.6/(1.46/0.343 + 0.07/398 + 0.07/0.42866)
+// = 1.6/(4.2566 + 0.000176 + 0.1633) = 0.36199 W/(m K).
+func TestBoardConductivity(t *testing.T) {
+	plane := CopperLayer{Thickness: 35e-6, Coverage: 1}
+	signal := CopperLayer{Thickness: 35e-6, Coverage: 0.2}
+	kin, kth, err := BoardConductivity(1.059, 0.343, 1.6e-3, []CopperLayer{signal, plane, plane, signal})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(kin-21.898) > 1e-3 || math.Abs(kth-0.36199) > 1e-5 {
+		t.Errorf("k_in %.6g, k_through %.6g; want 21.898 and 0.36199 (by hand)", kin, kth)
+	}
+	// Without copper, or with copper of no coverage, the laminate.
+	for _, cu := range [][]CopperLayer{nil, {{Thickness: 70e-6, Coverage: 0}}} {
+		kin, kth, err := BoardConductivity(1.059, 0.343, 1.6e-3, cu)
+		if err != nil || math.Abs(kin-1.059) > 1e-12 || math.Abs(kth-0.343) > 1e-12 {
+			t.Errorf("%v: %g, %g, %v; want the laminate's 1.059, 0.343", cu, kin, kth, err)
+		}
+	}
+	// The JEDEC JESD51-7 high effective conductivity (2s2p) test board:
+	// 1.6 mm of FR-4, two buried 1 oz (35 µm) planes, two 2 oz (70 µm)
+	// signal layers of sparse traces (stack from memory; 10 % coverage
+	// assumed here). Its effective in-plane conductivity is commonly
+	// taken as about 15–40 W/(m K) and its through-plane as 0.3–0.5
+	// (ranges from memory, a rule of thumb).
+	outer := CopperLayer{Thickness: 70e-6, Coverage: 0.1}
+	kin, kth, err = BoardConductivity(1.059, 0.343, 1.6e-3, []CopperLayer{outer, plane, plane, outer})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if kin < 15 || kin > 40 || kth < 0.3 || kth > 0.5 {
+		t.Errorf("2s2p board: k_in %g, k_through %g W/(m K)", kin, kth)
+	}
+	t.Logf("2s2p board: k_in %.4g, k_through %.4g W/(m K)", kin, kth)
+	for _, c := range []struct {
+		kin, kth, th float64
+		cu           []CopperLayer
+		want         string
+	}{
+		{0, 0.3, 1.6e-3, nil, "laminate in-plane conductivity must be a positive number, got 0"},
+		{1, 0.3, -1, nil, "board thickness must be a positive number, got -1"},
+		{1, 0.3, 1.6e-3, []CopperLayer{{Thickness: 0, Coverage: 1}}, "copper layer 1: thickness must be a positive number, got 0"},
+		{1, 0.3, 1.6e-3, []CopperLayer{plane, {Thickness: 35e-6, Coverage: 1.5}}, "copper layer 2: coverage must be between 0 and 1, got 1.5"},
+		{1, 0.3, 0.05e-3, []CopperLayer{plane, plane}, "the copper layers (0.07 mm together) leave no laminate in a board 0.05 mm thick"},
+	} {
+		if _, _, err := BoardConductivity(c.kin, c.kth, c.th, c.cu); err == nil || err.Error() != c.want {
+			t.Errorf("got %v, want %q", err, c.want)
+		}
+	}
+}
