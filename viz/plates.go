@@ -1,0 +1,209 @@
+package viz
+
+import (
+	"errors"
+	"fmt"
+	"math"
+
+	"github.com/heatgraph/heatgraph/network"
+)
+
+// A meshed plate is one node of the network (its temperature is that of
+// its hottest cell) and a network.PlateResult: the summary the reports
+// print, and every cell's temperature, which the heat maps draw and
+// WritePlateCells writes on request. No report copies the cells.
+
+// plateKind is the node kind of a meshed plate.
+const plateKind network.NodeKind = "plate"
+
+// checkPlate reports what makes a plate result unfit to draw or write.
+func checkPlate(p *network.PlateResult) error {
+	if p == nil {
+		return errors.New("no plate")
+	}
+	switch {
+	case p.NX < 1 || p.NY < 1 || p.NZ < 1:
+		return fmt.Errorf("plate %q: grid %d × %d × %d has no cells", p.ID, p.NX, p.NY, p.NZ)
+	case len(p.T) != p.NX*p.NY*p.NZ:
+		return fmt.Errorf("plate %q: %d cell temperatures for a grid of %d × %d × %d", p.ID, len(p.T), p.NX, p.NY, p.NZ)
+	case !(p.Width > 0) || !(p.Length > 0) || math.IsInf(p.Width, 0) || math.IsInf(p.Length, 0):
+		return fmt.Errorf("plate %q: size %g × %g m is not a positive finite size", p.ID, p.Width, p.Length)
+	}
+	return nil
+}
+
+// zCentre is the height of the centre of layer k, m.
+func zCentre(p *network.PlateResult, k int) float64 {
+	if len(p.ZEdges) == p.NZ+1 {
+		return (p.ZEdges[k] + p.ZEdges[k+1]) / 2
+	}
+	return (float64(k) + 0.5) * p.Thickness / float64(p.NZ)
+}
+
+// zSpan is the bottom and top of layer k, m.
+func zSpan(p *network.PlateResult, k int) (float64, float64) {
+	if len(p.ZEdges) == p.NZ+1 {
+		return p.ZEdges[k], p.ZEdges[k+1]
+	}
+	h := p.Thickness / float64(p.NZ)
+	return float64(k) * h, float64(k+1) * h
+}
+
+// plateField is what a heat map shows of a plate: one value per column
+// (i, j) of cells, K, and where its hottest cell is.
+type plateField struct {
+	p      *network.PlateResult
+	nx, ny int
+	v      []float64 // v[i + nx·j], K; a view into the solution for one layer
+	layer  int       // the layer shown, or -1: the hottest through the thickness
+	// hotI, hotJ, hotK locate the hottest cell shown (hotK the layer it
+	// is in); lo and hi are the coolest and hottest finite values shown.
+	hotI, hotJ, hotK int
+	lo, hi           float64
+	nonFinite        int // values that are not finite numbers
+	overCells        int // values above the plate's limit
+}
+
+// newPlateField takes layer k of a plate, or with k < 0 the hottest cell
+// through the thickness of every column.
+func newPlateField(p *network.PlateResult, k int) (*plateField, error) {
+	if err := checkPlate(p); err != nil {
+		return nil, err
+	}
+	if k >= p.NZ {
+		return nil, fmt.Errorf("plate %q has layers 0 to %d, not %d", p.ID, p.NZ-1, k)
+	}
+	n := p.NX * p.NY
+	f := &plateField{p: p, nx: p.NX, ny: p.NY, layer: k, lo: math.Inf(1), hi: math.Inf(-1), hotI: -1}
+	var layerOf []int32
+	if k >= 0 {
+		f.v = p.T[n*k : n*(k+1)]
+	} else {
+		f.v = make([]float64, n)
+		layerOf = make([]int32, n)
+		for c := range f.v {
+			f.v[c] = math.NaN()
+		}
+		for kk := 0; kk < p.NZ; kk++ {
+			layer := p.T[n*kk : n*(kk+1)]
+			for c, t := range layer {
+				if finite(t) && !(t <= f.v[c]) { // NaN compares false: the first finite value wins
+					f.v[c], layerOf[c] = t, int32(kk)
+				}
+			}
+		}
+	}
+	best := -1
+	for c, t := range f.v {
+		if !finite(t) {
+			f.nonFinite++
+			continue
+		}
+		if t > f.hi || best < 0 {
+			f.hi, best = t, c
+		}
+		f.lo = math.Min(f.lo, t)
+		if p.HasLimit && t > p.Limit {
+			f.overCells++
+		}
+	}
+	if best >= 0 {
+		f.hotI, f.hotJ = best%p.NX, best/p.NX
+		f.hotK = k
+		if k < 0 {
+			f.hotK = int(layerOf[best])
+		}
+	}
+	return f, nil
+}
+
+// blockMax returns the value of every block of bx × by cells (the last
+// ones in each direction smaller): the hottest finite cell of the block, or
+// NaN when it has none. Taking the maximum keeps every hot spot, however
+// small, in the picture.
+func (f *plateField) blockMax(bx, by int) (nbx, nby int, v []float64) {
+	nbx, nby = (f.nx+bx-1)/bx, (f.ny+by-1)/by
+	v = make([]float64, nbx*nby)
+	for i := range v {
+		v[i] = math.NaN()
+	}
+	for j := 0; j < f.ny; j++ {
+		row := f.v[j*f.nx : (j+1)*f.nx]
+		out := v[(j/by)*nbx : (j/by+1)*nbx]
+		for b := range out {
+			m := out[b]
+			for _, t := range row[b*bx : min((b+1)*bx, f.nx)] {
+				if finite(t) && !(t <= m) { // m is NaN until a finite cell
+					m = t
+				}
+			}
+			out[b] = m
+		}
+	}
+	return nbx, nby, v
+}
+
+// position returns the centre of cell (i, j, k), m.
+func (f *plateField) position(i, j, k int) (x, y, z float64) {
+	p := f.p
+	return (float64(i) + 0.5) * p.Width / float64(p.NX), (float64(j) + 0.5) * p.Length / float64(p.NY), zCentre(p, k)
+}
+
+// mmText formats a position in mm with one decimal: (x, y) for a plate one
+// cell thick, (x, y, z) otherwise.
+func mmText(p *network.PlateResult, x, y, z float64) string {
+	if p.NZ > 1 {
+		return fmt.Sprintf("(%s, %s, %s) mm", fnum("%.1f", 1e3*x), fnum("%.1f", 1e3*y), fnum("%.2f", 1e3*z))
+	}
+	return fmt.Sprintf("(%s, %s) mm", fnum("%.1f", 1e3*x), fnum("%.1f", 1e3*y))
+}
+
+// plateByID indexes the plates of a solution.
+func plateByID(sol *network.Solution) map[string]*network.PlateResult {
+	m := map[string]*network.PlateResult{}
+	for i := range sol.Plates {
+		m[sol.Plates[i].ID] = &sol.Plates[i]
+	}
+	return m
+}
+
+// plateStatus is the status word of a plate's hottest cell, as the node
+// table writes it.
+func plateStatus(p *network.PlateResult) string {
+	if !p.HasLimit {
+		return "no limit"
+	}
+	return statusText(p.Status)
+}
+
+// plateWarnings returns a warning for every number of a plate that is not
+// finite, counting the cells rather than naming each.
+func plateWarnings(p *network.PlateResult) []string {
+	var w []string
+	item := "plate " + p.ID
+	check := func(quantity string, x float64) {
+		if !finite(x) {
+			w = append(w, nonFiniteWarning(item, quantity, x, "its value is left out"))
+		}
+	}
+	check("hottest temperature", p.Hottest)
+	check("mean temperature", p.Mean)
+	check("coolest temperature", p.Coolest)
+	if p.HasLimit {
+		check("limit", p.Limit)
+		check("margin", p.Margin)
+	}
+	for _, j := range p.Joins {
+		check("heat through "+j.Name, j.Heat)
+	}
+	bad := 0
+	for _, t := range p.T {
+		if !finite(t) {
+			bad++
+		}
+	}
+	if bad > 0 {
+		w = append(w, fmt.Sprintf("%s: %s without a finite temperature; heat maps leave them grey and cell tables empty", item, countOf(bad, "cell")))
+	}
+	return w
+}
