@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strings"
 
 	"github.com/heatgraph/heatgraph/network"
 )
@@ -206,4 +207,123 @@ func plateWarnings(p *network.PlateResult) []string {
 		w = append(w, fmt.Sprintf("%s: %s without a finite temperature; heat maps leave them grey and cell tables empty", item, countOf(bad, "cell")))
 	}
 	return w
+}
+
+// writePlates writes the text report's section on meshed plates: for each,
+// its hottest cell and where it is, its mean and coolest, its limit, and
+// the heat through each of its joins.
+func writePlates(tw *textWriter, sol *network.Solution) {
+	if len(sol.Plates) == 0 {
+		return
+	}
+	tw.printf("\nplates (each is one node above, at its hottest cell)\n")
+	for i := range sol.Plates {
+		p := &sol.Plates[i]
+		tw.printf("  %s: %s × %s × %s mm, %d × %d × %d cells\n", p.ID, fnum("%.1f", 1e3*p.Width), fnum("%.1f", 1e3*p.Length),
+			fnum("%.2f", 1e3*p.Thickness), p.NX, p.NY, p.NZ)
+		tw.printf("    hottest  %9s °C at %s\n", fnum("%.2f", celsius(p.Hottest)), mmText(p, p.HotX, p.HotY, p.HotZ))
+		tw.printf("    mean     %9s °C\n", fnum("%.2f", celsius(p.Mean)))
+		tw.printf("    coolest  %9s °C\n", fnum("%.2f", celsius(p.Coolest)))
+		if p.HasLimit {
+			tw.printf("    limit    %9s °C, margin %s K  %s\n", fnum("%.2f", celsius(p.Limit)), fnum("%+.2f", noNegZero(p.Margin, 2)), statusText(p.Status))
+		} else {
+			tw.printf("    limit            - (none set)\n")
+		}
+		if len(p.Parts) > 0 {
+			items := make([]string, len(p.Parts))
+			for k, fp := range p.Parts {
+				items[k] = fp.Name + " " + watts(fp.Power)
+				if fp.Face != "" && fp.Face != "top" {
+					items[k] += " (" + fp.Face + ")"
+				}
+			}
+			tw.printf("    parts on it: %s\n", strings.Join(items, ", "))
+		}
+		if len(p.Joins) == 0 {
+			continue
+		}
+		nw := len("join")
+		for _, j := range p.Joins {
+			nw = max(nw, len(j.Name))
+		}
+		tw.printf("    %-*s  %10s  %s\n", nw, "join", "heat [W]", "to node (positive heat leaves the plate)")
+		total := 0.0
+		for _, j := range p.Joins {
+			tw.printf("    %-*s  %10s  %s\n", nw, j.Name, fnum("%.3f", noNegZero(j.Heat, 3)), j.Node)
+			total += j.Heat
+		}
+		tw.printf("    %-*s  %10s\n", nw, "all joins", fnum("%.3f", noNegZero(total, 3)))
+	}
+}
+
+// PlateReport is the JSON summary of one meshed plate: its grid and size,
+// its hottest cell and where it is, its mean and coolest temperatures, its
+// limit, the heat through each join and the parts on it. The cells are
+// not in it (see WritePlateCells).
+type PlateReport struct {
+	ID         string `json:"id"`
+	NX         int    `json:"nx"`
+	NY         int    `json:"ny"`
+	NZ         int    `json:"nz"`
+	WidthM     Number `json:"width_m"`
+	LengthM    Number `json:"length_m"`
+	ThicknessM Number `json:"thickness_m"`
+	HottestC   Number `json:"hottest_degC"`
+	// HottestXM, HottestYM and HottestZM locate the centre of the hottest
+	// cell from the corner at x = 0, y = 0 of the bottom face.
+	HottestXM Number                 `json:"hottest_x_m"`
+	HottestYM Number                 `json:"hottest_y_m"`
+	HottestZM Number                 `json:"hottest_z_m"`
+	MeanC     Number                 `json:"mean_degC"`
+	CoolestC  Number                 `json:"coolest_degC"`
+	LimitC    *Number                `json:"limit_degC,omitempty"`
+	MarginK   *Number                `json:"margin_K,omitempty"`
+	Status    string                 `json:"status,omitempty"`
+	Joins     []PlateJoinReport      `json:"joins"`
+	Parts     []PlateFootprintReport `json:"parts,omitempty"`
+}
+
+// PlateJoinReport is the heat through one join of a plate, positive out of
+// the plate into the node.
+type PlateJoinReport struct {
+	Name  string `json:"name"`
+	Face  string `json:"face"`
+	Node  string `json:"node"`
+	Kind  string `json:"kind"`
+	HeatW Number `json:"heat_W"`
+}
+
+// PlateFootprintReport is a part's footprint on a face of a plate, m from the
+// corner at x = 0, y = 0, and the power that enters the plate there.
+type PlateFootprintReport struct {
+	Name   string `json:"name"`
+	Face   string `json:"face"`
+	X0M    Number `json:"x0_m"`
+	Y0M    Number `json:"y0_m"`
+	X1M    Number `json:"x1_m"`
+	Y1M    Number `json:"y1_m"`
+	PowerW Number `json:"power_W"`
+}
+
+func newPlateReports(sol *network.Solution) []PlateReport {
+	var out []PlateReport
+	for i := range sol.Plates {
+		p := &sol.Plates[i]
+		r := PlateReport{ID: p.ID, NX: p.NX, NY: p.NY, NZ: p.NZ,
+			WidthM: Number(p.Width), LengthM: Number(p.Length), ThicknessM: Number(p.Thickness),
+			HottestC: Number(celsius(p.Hottest)), HottestXM: Number(p.HotX), HottestYM: Number(p.HotY), HottestZM: Number(p.HotZ),
+			MeanC: Number(celsius(p.Mean)), CoolestC: Number(celsius(p.Coolest)), Joins: []PlateJoinReport{}}
+		if p.HasLimit {
+			r.LimitC, r.MarginK, r.Status = num(celsius(p.Limit)), num(p.Margin), string(p.Status)
+		}
+		for _, j := range p.Joins {
+			r.Joins = append(r.Joins, PlateJoinReport{Name: j.Name, Face: j.Face, Node: j.Node, Kind: j.Kind, HeatW: Number(j.Heat)})
+		}
+		for _, fp := range p.Parts {
+			r.Parts = append(r.Parts, PlateFootprintReport{Name: fp.Name, Face: fp.Face, X0M: Number(fp.X0), Y0M: Number(fp.Y0),
+				X1M: Number(fp.X1), Y1M: Number(fp.Y1), PowerW: Number(fp.Power)})
+		}
+		out = append(out, r)
+	}
+	return out
 }
