@@ -97,6 +97,7 @@ func DOTWith(sol *network.Solution, opt DiagramOptions) (string, error) {
 	}
 
 	steps := marginScaleFor(sol.Net.Model.RequiredMargin)
+	plates := plateByID(sol)
 	for _, n := range ds.nodes {
 		fill := nodeFill(n, opt.Colouring, tMin, tMax, steps)
 		attrs := map[string]string{
@@ -118,6 +119,9 @@ func DOTWith(sol *network.Solution, opt DiagramOptions) (string, error) {
 			attrs["penwidth"] = "2.5"
 			attrs["color"] = q(tightOutline)
 			attrs["style"] = q("filled,rounded,dashed")
+		}
+		if n.Kind == plateKind {
+			plateNodeAttrs(attrs, n, plates[n.ID], opt)
 		}
 		names := copies[n.ID]
 		if len(names) == 0 {
@@ -301,6 +305,8 @@ func nodeShape(k network.NodeKind) string {
 		return "octagon"
 	case network.Air:
 		return "ellipse"
+	case plateKind:
+		return "box3d"
 	}
 	return "box"
 }

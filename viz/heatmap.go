@@ -279,10 +279,16 @@ func (m *heatMap) decorate(c canvas, cellWords string) {
 		c.line(cx-11, cy, cx-4, cy, "#111111", 1.5)
 		c.line(cx+4, cy, cx+11, cy, "#111111", 1.5)
 		label := "hottest " + fnum("%.1f", celsius(f.hi)) + " °C at " + mmText(p, x, y, z)
+		// Below the marker (above it near the bottom edge), clear of the
+		// footprints' names at their top left corners.
+		ly := cy + 24
+		if ly > m.y0+m.ph-4 {
+			ly = cy - 14
+		}
 		if cx > m.x0+0.55*m.pw {
-			c.text(cx-12, cy-10, 1, 11, true, true, label)
+			c.text(cx+8, ly, 1, 11, true, true, label)
 		} else {
-			c.text(cx+12, cy-10, -1, 11, true, true, label)
+			c.text(cx-8, ly, -1, 11, true, true, label)
 		}
 	}
 

@@ -1,8 +1,10 @@
 package viz
 
 import (
+	"bytes"
 	"errors"
 	"fmt"
+	"html/template"
 	"math"
 	"strings"
 
@@ -326,4 +328,79 @@ func newPlateReports(sol *network.Solution) []PlateReport {
 		out = append(out, r)
 	}
 	return out
+}
+
+// htmlPlate is a plate's section of the HTML report.
+type htmlPlate struct {
+	ID, Size, Hottest, Where, Mean, Coolest, Limit, Status, Class, Parts string
+	Joins                                                                []htmlJoin
+	SVG                                                                  template.HTML // the heat map, written by WritePlateSVG
+	Error                                                                string        // why there is no heat map
+}
+
+type htmlJoin struct{ Name, Node, Heat string }
+
+func newHTMLPlates(sol *network.Solution) []htmlPlate {
+	var out []htmlPlate
+	for i := range sol.Plates {
+		p := &sol.Plates[i]
+		hp := htmlPlate{ID: p.ID,
+			Size: fmt.Sprintf("%s × %s × %s mm, %d × %d × %d cells", fnum("%.1f", 1e3*p.Width), fnum("%.1f", 1e3*p.Length),
+				fnum("%.2f", 1e3*p.Thickness), p.NX, p.NY, p.NZ),
+			Hottest: fnum("%.2f", celsius(p.Hottest)), Where: mmText(p, p.HotX, p.HotY, p.HotZ),
+			Mean: fnum("%.2f", celsius(p.Mean)), Coolest: fnum("%.2f", celsius(p.Coolest)),
+			Limit: "none set", Status: "no limit", Class: string(p.Status)}
+		if p.HasLimit {
+			hp.Limit = fnum("%.2f", celsius(p.Limit)) + " °C"
+			hp.Status = "margin " + fnum("%+.2f", noNegZero(p.Margin, 2)) + " K " + statusText(p.Status)
+		}
+		var parts []string
+		for _, fp := range p.Parts {
+			parts = append(parts, fp.Name+" "+watts(fp.Power))
+		}
+		hp.Parts = strings.Join(parts, ", ")
+		for _, j := range p.Joins {
+			hp.Joins = append(hp.Joins, htmlJoin{Name: j.Name, Node: j.Node, Heat: fnum("%.3f", noNegZero(j.Heat, 3))})
+		}
+		var svg bytes.Buffer
+		if err := WritePlateSVG(&svg, p, HeatMapOptions{}); err != nil {
+			hp.Error = "no heat map: " + err.Error()
+		} else {
+			// Our own SVG: every string in it is escaped (WritePlateSVG).
+			hp.SVG = template.HTML(svg.String()) //nolint:gosec // see above
+		}
+		out = append(out, hp)
+	}
+	return out
+}
+
+// plateNodeAttrs draws a meshed plate's node as one slab (a 3-D box, not
+// rounded) with its hottest cell and mean in its label. p is nil when the
+// solution has no summary of the plate.
+func plateNodeAttrs(attrs map[string]string, n network.NodeResult, p *network.PlateResult, opt DiagramOptions) {
+	style := "filled"
+	if n.Status == network.Tight {
+		style += ",dashed"
+	}
+	attrs["style"] = q(style)
+	label := n.ID
+	tip := fmt.Sprintf("%s (meshed plate): hottest cell %.2f °C", n.ID, celsius(n.Temperature))
+	if p != nil {
+		label += fmt.Sprintf("\nplate, %d × %d × %d cells", p.NX, p.NY, p.NZ)
+		tip += " at " + mmText(p, p.HotX, p.HotY, p.HotZ) + ", mean " + fnum("%.2f", celsius(p.Mean)) + " °C"
+	}
+	label += fmt.Sprintf("\nhottest %.1f °C", celsius(n.Temperature))
+	if p != nil && finite(p.Mean) {
+		label += fmt.Sprintf("\nmean %.1f °C", celsius(p.Mean))
+	}
+	if n.HasLimit {
+		label += fmt.Sprintf("\nmargin %s K %s", signed(n.Margin), statusWord(n))
+	} else {
+		label += "\nno limit"
+	}
+	if n.Power != 0 {
+		label += "\npower " + watts(n.Power)
+	}
+	attrs["label"] = q(compareLabel(label, n, opt))
+	attrs["tooltip"] = q(tip + ", " + statusWord(n))
 }

@@ -2,11 +2,13 @@ package viz
 
 import (
 	"bytes"
+	"context"
 	"encoding/csv"
 	"encoding/json"
 	"fmt"
 	"io"
 	"math"
+	"regexp"
 	"strconv"
 	"strings"
 	"testing"
@@ -254,3 +256,71 @@ func benchmarkCells(b *testing.B, format string) {
 
 func BenchmarkPlateCellsCSV1e6(b *testing.B)  { benchmarkCells(b, CellsCSV) }
 func BenchmarkPlateCellsJSON1e6(b *testing.B) { benchmarkCells(b, CellsJSON) }
+
+// The HTML report has a section per plate: its summary, its joins and its
+// heat map inline, every model string escaped, and each heat map's
+// pattern id its own.
+func TestHTMLPlates(t *testing.T) {
+	p := testBoard(100, 80, 50, 40, 2)
+	sol, run := plateSolution(t, p)
+	q := testBoard(60, 30, 12, 6, 1)
+	q.ID = `<img src=x onerror=alert(1)>`
+	q.Parts[0].Name = `"><script>bad()</script>`
+	sol.Plates = append(sol.Plates, q)
+	var buf bytes.Buffer
+	require.NoError(t, WriteHTML(&buf, NewHTMLReport(sol, run, nil)))
+	page := buf.String()
+	assert.Contains(t, page, "<h2>Meshed plates</h2>")
+	assert.Contains(t, page, "<h3>main-board</h3>")
+	assert.Contains(t, page, "<td>100.0 × 80.0 × 1.60 mm, 50 × 40 × 2 cells</td>")
+	assert.Contains(t, page, fmt.Sprintf(`<tr><th>hottest</th><td class="n">%.2f °C</td><td>at (65.0, 39.0, 1.20) mm</td></tr>`, celsius(p.Hottest)))
+	assert.Contains(t, page, `<tr class="over"><th>limit</th><td class="n">105.00 °C</td><td>margin -2.80 K OVER</td></tr>`)
+	assert.Contains(t, page, `<tr><td>x_min to chassis (contact)</td><td>chassis</td><td class="n">4.470</td></tr>`)
+	assert.Equal(t, 2, strings.Count(page, `<div class="heatmap"><svg xmlns="http://www.w3.org/2000/svg"`))
+	assert.NotContains(t, page, "<img")
+	assert.NotContains(t, page, "<script>bad")
+	assert.Contains(t, page, "&lt;img src=x onerror=alert(1)&gt;")
+	ids := regexp.MustCompile(`<pattern id="([^"]+)"`).FindAllStringSubmatch(page, -1)
+	require.Len(t, ids, 2)
+	assert.NotEqual(t, ids[0][1], ids[1][1])
+	assert.NotContains(t, page, "http://www.w3.org/2000/svg\" href", "nothing is loaded from elsewhere")
+
+	// A plate that cannot be drawn says why, and the page is still written.
+	sol.Plates[1].T = nil
+	buf.Reset()
+	require.NoError(t, WriteHTML(&buf, NewHTMLReport(sol, run, nil)))
+	assert.Contains(t, buf.String(), "no heat map: plate &#34;&lt;img src=x onerror=alert(1)&gt;&#34;: 0 cell temperatures")
+}
+
+// A plate's node is one slab with its hottest cell and mean, its paths
+// those of its joins; the legend names the shape only when a plate is
+// drawn. Graphviz lays it out.
+func TestDOTPlateNode(t *testing.T) {
+	p := testBoard(100, 80, 50, 40, 2)
+	sol, _ := plateSolution(t, p)
+	dot, err := DOT(sol, ColourMargin)
+	require.NoError(t, err)
+	assert.Regexp(t, `"main-board"\s*\[[^\]]*shape=box3d`, dot)
+	assert.Regexp(t, `"main-board"\s*\[[^\]]*style="filled"`, dot, "a slab, not a rounded box")
+	assert.Contains(t, dot, `label="main-board\nplate, 50 × 40 × 2 cells\nhottest 107.8 °C\nmean 50.8 °C\nmargin -2.8 K OVER\npower 14 W"`)
+	assert.Contains(t, dot, "3-D slab: meshed plate, at its")
+	assert.Contains(t, dot, `"main-board"->"box-air"`)
+	assert.Contains(t, dot, `"main-board"->"chassis"`)
+	assert.Regexp(t, `"box-air"\s*\[[^\]]*shape=box`, dot)
+	assert.NotRegexp(t, `"box-air"\s*\[[^\]]*shape=box3d`, dot)
+	svg, err := Render(context.Background(), dot, FormatSVG)
+	require.NoError(t, err)
+	assert.Contains(t, string(svg), "hottest 107.8 °C")
+
+	plain, _ := solveText(t, "board.yaml", plateModel)
+	dot, err = DOT(plain, ColourTemperature)
+	require.NoError(t, err)
+	assert.NotContains(t, dot, "box3d")
+	assert.NotContains(t, dot, "meshed plate")
+
+	// A plate node without a summary still says what it is.
+	sol.Plates = nil
+	dot, err = DOT(sol, ColourMargin)
+	require.NoError(t, err)
+	assert.Contains(t, dot, `label="main-board\nhottest 107.8 °C\nmargin -2.8 K OVER\npower 14 W"`)
+}
