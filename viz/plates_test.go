@@ -324,3 +324,38 @@ func TestDOTPlateNode(t *testing.T) {
 	require.NoError(t, err)
 	assert.Contains(t, dot, `label="main-board\nhottest 107.8 °C\nmargin -2.8 K OVER\npower 14 W"`)
 }
+
+// The table of a solution has a row for each join of a plate: the heat
+// from the plate to the node joined; the plate itself is a node row.
+func TestCSVPlateJoins(t *testing.T) {
+	sol, _ := plateSolution(t, testBoard(100, 80, 50, 40, 1))
+	var buf bytes.Buffer
+	require.NoError(t, WriteCSV(&buf, sol))
+	rows, err := csv.NewReader(&buf).ReadAll()
+	require.NoError(t, err)
+	assert.Contains(t, rows, []string{"join", "bottom to box-air (convection)", "convection", "main-board", "box-air", "", "", "", "", "", "3.91"})
+	found := false
+	for _, r := range rows {
+		found = found || (r[0] == "node" && r[1] == "main-board" && r[2] == "plate")
+	}
+	assert.True(t, found, "the plate is a node row of kind plate")
+}
+
+// Power is "power" in every plate output too, never "heat input"; a
+// join carries "heat".
+func TestPlateWords(t *testing.T) {
+	sol, run := plateSolution(t, testBoard(100, 80, 20, 16, 1))
+	var text, js, page, svg bytes.Buffer
+	require.NoError(t, WriteText(&text, sol, run, ByFile))
+	require.NoError(t, WriteJSON(&js, NewReport(sol.Net.Model, sol, run)))
+	require.NoError(t, WriteHTML(&page, NewHTMLReport(sol, run, nil)))
+	require.NoError(t, WritePlateSVG(&svg, &sol.Plates[0], HeatMapOptions{}))
+	dot, err := DOT(sol, ColourMargin)
+	require.NoError(t, err)
+	for _, out := range []string{text.String(), js.String(), page.String(), svg.String(), dot} {
+		assert.NotContains(t, out, "heat input")
+	}
+	assert.Contains(t, js.String(), `"power_W": 11`)
+	assert.Contains(t, text.String(), "heat [W]  to node")
+	assert.Contains(t, svg.String(), ">cpu 11 W<")
+}
