@@ -224,8 +224,10 @@ func heatEdges(sol *network.Solution) []heatEdge {
 			flows[b.Link] = b.VolumeFlow
 		}
 	}
+	linked := map[[2]string]bool{} // pairs of nodes a link joins
 	for _, l := range sol.Links {
 		for k, p := range l.Paths {
+			linked[[2]string{p.From, p.To}], linked[[2]string{p.To, p.From}] = true, true
 			if k > 0 && p.Heat == 0 {
 				continue
 			}
@@ -246,6 +248,7 @@ func heatEdges(sol *network.Solution) []heatEdge {
 			}
 		}
 	}
+	plateJoinEdges(sol, linked, add)
 	for i := range edges {
 		e := &edges[i]
 		if e.heat < 0 {

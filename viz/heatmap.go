@@ -552,6 +552,9 @@ func WritePlatePNG(w io.Writer, p *network.PlateResult, opt HeatMapOptions) erro
 	if err != nil {
 		return err
 	}
+	if m.w*m.h > maxPNGPixels {
+		return fmt.Errorf("a heat map of %g × %g pixels is larger than %g pixels", m.w, m.h, float64(maxPNGPixels))
+	}
 	f := m.f
 	dc := gg.NewContext(int(m.w), int(m.h))
 	dc.SetRGB(1, 1, 1)

@@ -182,6 +182,7 @@ func TestPlatePNG(t *testing.T) {
 	assert.Equal(t, a.Bytes(), b.Bytes(), "the PNG is deterministic")
 	_, err := png.Decode(&a)
 	require.NoError(t, err)
+	assert.ErrorContains(t, WritePlatePNG(io.Discard, &q, HeatMapOptions{WidthPx: 20000, HeightPx: 20000}), "larger than")
 }
 
 func TestPlateViews(t *testing.T) {

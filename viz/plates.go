@@ -404,3 +404,18 @@ func plateNodeAttrs(attrs map[string]string, n network.NodeResult, p *network.Pl
 	attrs["label"] = q(compareLabel(label, n, opt))
 	attrs["tooltip"] = q(tip + ", " + statusWord(n))
 }
+
+// plateJoinEdges adds the heat through each join of a meshed plate to the
+// arrows, from the plate to the node joined, where no link of the
+// solution already joins the two (a plate's joins may be links of their
+// own; then they are counted once, as links). add is heatEdges' merge.
+func plateJoinEdges(sol *network.Solution, linked map[[2]string]bool, add func(from, to string, heat float64, air bool, what, kind string) int) {
+	for _, p := range sol.Plates {
+		for _, j := range p.Joins {
+			if linked[[2]string{p.ID, j.Node}] || j.Node == "" || j.Node == p.ID {
+				continue
+			}
+			add(p.ID, j.Node, j.Heat, false, fmt.Sprintf("%s: %s (%s)", p.ID, j.Name, j.Kind), j.Kind)
+		}
+	}
+}

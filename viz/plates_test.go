@@ -359,3 +359,30 @@ func TestPlateWords(t *testing.T) {
 	assert.Contains(t, text.String(), "heat [W]  to node")
 	assert.Contains(t, svg.String(), ">cpu 11 W<")
 }
+
+// A plate's arrows: its links where links join it to a node (each heat
+// counted once), and its joins where no link does, merged per node.
+func TestPlateArrowsFromJoins(t *testing.T) {
+	sol, _ := plateSolution(t, testBoard(100, 80, 50, 40, 1))
+	dot, err := DOT(sol, ColourMargin)
+	require.NoError(t, err)
+	assert.Regexp(t, `"main-board"->"box-air"\[[^\]]*label="8.56 W`, dot, "the link's heat, not the joins' added to it")
+
+	// Joins that are not links of the solution.
+	var kept []network.LinkResult
+	for _, l := range sol.Links {
+		if l.From != "main-board" {
+			kept = append(kept, l)
+		}
+	}
+	sol.Links = kept
+	dot, err = DOT(sol, ColourMargin)
+	require.NoError(t, err)
+	assert.Regexp(t, `"main-board"->"box-air"\[[^\]]*label="9.53 W`, dot, "top and bottom to the box air: 5.62 + 3.91 W")
+	assert.Regexp(t, `"main-board"->"box-air"\[[^\]]*style=dashed`, dot, "convection")
+	assert.Regexp(t, `"main-board"->"chassis"\[[^\]]*label="4.47 W`, dot)
+	assert.Contains(t, dot, "main-board: x_min to chassis (contact)")
+	b := NewBreakdown(sol).Source("main-board")
+	require.NotNil(t, b)
+	assert.InDelta(t, 14, b.Heat, 1e-9)
+}
