@@ -144,7 +144,7 @@ func newHeatMap(p *network.PlateResult, opt HeatMapOptions) (*heatMap, error) {
 		m.h = 640
 	}
 	m.w, m.h = math.Max(m.w, 400), math.Max(m.h, 300)
-	const left, right, top, bottom = 64.0, 190.0, 62.0, 118.0
+	const left, right, top, bottom = 64.0, 190.0, 62.0, 132.0
 	aw, ah := m.w-left-right, m.h-top-bottom
 	m.s = math.Min(aw/p.Width, ah/p.Length)
 	m.x0, m.y0, m.pw, m.ph = left, top, m.s*p.Width, m.s*p.Length
@@ -338,6 +338,16 @@ func (m *heatMap) decorate(c canvas, cellWords string) {
 	if p.HasLimit {
 		lines = append(lines, "limit "+fnum("%.2f", celsius(p.Limit))+" °C, margin "+fnum("%+.2f", noNegZero(p.Margin, 2))+" K: "+plateStatus(p)+
 			overWords(f.overCells))
+	}
+	if len(p.Parts) > 0 {
+		outl := "outlined: parts on the top face"
+		for _, fp := range p.Parts {
+			if fp.Face == "bottom" {
+				outl += "; dashed: on the bottom face"
+				break
+			}
+		}
+		lines = append(lines, outl+"; ring: the hottest cell shown")
 	}
 	if f.nonFinite > 0 {
 		lines = append(lines, "grey: "+countOf(f.nonFinite, "column")+" without a finite temperature")
