@@ -157,12 +157,12 @@ var exclusive = [][]string{
 
 // sections are the lists of items an override may address, with the key
 // that names their items.
-var sections = map[string]string{"nodes": "id", "components": "id", "links": "id", "materials": "name"}
+var sections = map[string]string{"nodes": "id", "components": "id", "links": "id", "materials": "name", "plates": "id"}
 
 // applyOverride puts o into the model's top mapping; line marks the new
 // nodes. It returns a message when the path names nothing.
 func applyOverride(root *yaml.Node, o Override, line int) string {
-	top := []string{"ambient", "required_margin", "title", "nodes", "components", "links", "materials"}
+	top := []string{"ambient", "required_margin", "title", "nodes", "components", "links", "materials", "plates"}
 	section, rest, hasRest := strings.Cut(o.Path, ".")
 	switch section {
 	case "required_margin", "title":
@@ -196,6 +196,12 @@ func applyOverride(root *yaml.Node, o Override, line int) string {
 		return fmt.Sprintf("expected %s.ID.KEY, e.g. %s", section, pathExample(section))
 	}
 	id, key := rest[:dot], rest[dot+1:]
+	var within string // a plate's faces.N, heat.N, layers.N or board
+	if section == "plates" {
+		if pid, sub, ok := strings.Cut(id, "."); ok {
+			id, within = pid, sub
+		}
+	}
 	items := itemsOf(root, section)
 	ids := make([]string, 0, len(items))
 	var item *yaml.Node
@@ -213,7 +219,13 @@ func applyOverride(root *yaml.Node, o Override, line int) string {
 		return fmt.Sprintf("no %s %q%s (%s: %s)", what, id, suggest(id, ids), section, strings.Join(ids, ", "))
 	}
 	valid, what := keysOf(section, item)
-	if key == idKey {
+	if within != "" {
+		var msg string
+		if item, valid, what, msg = plateWithin(item, within); msg != "" {
+			return msg
+		}
+	}
+	if key == idKey && within == "" {
 		return fmt.Sprintf("%s names the item and cannot be set", idKey)
 	}
 	if valid != nil && !contains(valid, key) {
@@ -318,8 +330,47 @@ func keysOf(section string, n *yaml.Node) ([]string, string) {
 		}
 	case "materials":
 		return materialKeys, "a material"
+	case "plates":
+		if lookup(n, "layers") != nil {
+			return plateKeys, "a plate"
+		}
+		return append(append([]string{}, plateKeys...), layerKeys...), "a plate"
 	}
 	return nil, ""
+}
+
+// plateWithin finds the part of a plate that an override's path names
+// within it: faces.N, heat.N, layers.N (counted from 0) or board.
+func plateWithin(plate *yaml.Node, within string) (*yaml.Node, []string, string, string) {
+	list, index, hasIndex := strings.Cut(within, ".")
+	if !hasIndex {
+		if within != "board" {
+			return nil, nil, "", fmt.Sprintf("within a plate, name faces.N, heat.N, layers.N or board, e.g. plates.board.faces.0.h=8W/(m2K); got %q", within)
+		}
+		b := lookup(plate, "board")
+		if b == nil || b.Kind != yaml.MappingNode {
+			return nil, nil, "", "the plate has no board: mapping"
+		}
+		return b, boardKeys, "a printed board", ""
+	}
+	keys := map[string][]string{"faces": plateFaceKeys, "heat": plateHeatKeys, "layers": layerKeys}
+	valid, ok := keys[list]
+	if !ok {
+		return nil, nil, "", fmt.Sprintf("within a plate, name faces.N, heat.N, layers.N or board; got %q", list)
+	}
+	seq := lookup(plate, list)
+	if seq == nil || seq.Kind != yaml.SequenceNode {
+		return nil, nil, "", fmt.Sprintf("the plate has no %s: list", list)
+	}
+	k, err := strconv.Atoi(index)
+	if err != nil || k < 0 || k >= len(seq.Content) {
+		return nil, nil, "", fmt.Sprintf("%s.%s: the plate's %s are numbered 0 to %d", list, index, list, len(seq.Content)-1)
+	}
+	n := deref(seq.Content[k])
+	if n.Kind != yaml.MappingNode {
+		return nil, nil, "", fmt.Sprintf("%s.%d is not a mapping", list, k)
+	}
+	return n, valid, "a plate's " + strings.TrimSuffix(list, "s") + " entry", ""
 }
 
 // lookup returns the value of key in mapping n, also through merge keys
@@ -498,6 +549,31 @@ func Parameters(file string, data []byte, ovs []Override) []Parameter {
 		add("components."+it.id+".r_jc", lookup(it.node, "r_jc"), units.ThermalResistance, false)
 		add("components."+it.id+".r_jb", lookup(it.node, "r_jb"), units.ThermalResistance, false)
 		add("components."+it.id+".limit", lookup(it.node, "limit"), units.Temperature, true)
+	}
+	for _, it := range itemsOf(root, "plates") {
+		pre := "plates." + it.id + "."
+		add(pre+"limit", lookup(it.node, "limit"), units.Temperature, true)
+		add(pre+"thickness", lookup(it.node, "thickness"), units.Length, false)
+		add(pre+"conductivity", lookup(it.node, "conductivity"), units.Conductivity, false)
+		add(pre+"through_conductivity", lookup(it.node, "through_conductivity"), units.Conductivity, false)
+		if b := lookup(it.node, "board"); b != nil {
+			add(pre+"board.thickness", lookup(b, "thickness"), units.Length, false)
+		}
+		if seq := lookup(it.node, "faces"); seq != nil && seq.Kind == yaml.SequenceNode {
+			for k, f := range seq.Content {
+				fp := fmt.Sprintf("%sfaces.%d.", pre, k)
+				add(fp+"h", lookup(f, "h"), units.HeatTransferCoefficient, false)
+				add(fp+"contact", lookup(f, "contact"), units.SpecificResistance, false)
+				add(fp+"resistance", lookup(f, "resistance"), units.ThermalResistance, false)
+				add(fp+"conductance", lookup(f, "conductance"), units.Conductance, false)
+				add(fp+"emissivity", lookup(f, "emissivity"), units.Dimensionless, false)
+			}
+		}
+		if seq := lookup(it.node, "heat"); seq != nil && seq.Kind == yaml.SequenceNode {
+			for k, h := range seq.Content {
+				add(fmt.Sprintf("%sheat.%d.power", pre, k), lookup(h, "power"), units.Power, false)
+			}
+		}
 	}
 	for _, it := range itemsOf(root, "links") {
 		k := findLinkKind(scalar(lookup(it.node, "kind")))

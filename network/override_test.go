@@ -173,3 +173,37 @@ links:
 	_, ok = ParameterAt("box.yaml", []byte(src), nil, "links.a--ambient.kind")
 	assert.False(t, ok)
 }
+
+// A plate's values, its faces', heat regions' and board's among them, can
+// be set by path; a path that names nothing says what would.
+func TestOverridePlates(t *testing.T) {
+	m, err := ReadFileWith("../examples/camera-board.yaml", overrides(t,
+		"plates.board.faces.0.h=8 W/(m2 K)", "plates.board.board.thickness=2 mm",
+		"plates.board.heat.0.power=1 W", "plates.spreader.thickness=3 mm", "plates.board.limit=95 degC"))
+	require.NoError(t, err)
+	b, s := m.Plates[0], m.Plates[1]
+	assert.Equal(t, 8.0, b.Faces[0].H)
+	assert.InDelta(t, 2e-3, b.Thickness(), 1e-15)
+	assert.Equal(t, 1.0, b.Heats[0].Power)
+	assert.InDelta(t, 3e-3, s.Thickness(), 1e-15)
+	assert.InDelta(t, 368.15, b.Limit, 1e-12)
+	for path, want := range map[string]string{
+		"plates.board.faces.12.h=1W/(m2K)":     "the plate's faces are numbered 0 to 7",
+		"plates.board.walls.0.h=1W/(m2K)":      "name faces.N, heat.N, layers.N or board",
+		"plates.board.faces.0.hh=1W/(m2K)":     `unknown key "hh" (did you mean "h"?)`,
+		"plates.boad.limit=90degC":             `no plate "boad" (did you mean "board"?)`,
+		"plates.spreader.board.thickness=1 mm": "the plate has no board: mapping",
+	} {
+		_, err := ReadFileWith("../examples/camera-board.yaml", overrides(t, path))
+		assert.ErrorContains(t, err, want, path)
+	}
+	var paths []string
+	data, err := os.ReadFile("../examples/camera-board.yaml")
+	require.NoError(t, err)
+	for _, p := range Parameters("../examples/camera-board.yaml", data, nil) {
+		paths = append(paths, p.Path)
+	}
+	for _, p := range []string{"plates.board.faces.0.h", "plates.board.faces.4.resistance", "plates.spreader.faces.0.contact", "plates.board.heat.0.power", "plates.board.board.thickness", "plates.spreader.thickness"} {
+		assert.Contains(t, paths, p)
+	}
+}
