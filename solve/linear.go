@@ -148,3 +148,12 @@ func (d *DenseLU) Solve(x, b []float64) error {
 	}
 	return nil
 }
+
+// Stats returns the iterations and relative residual of the last solve
+// when the chosen solver iterates, zeros for a direct one.
+func (a *SparseAuto) Stats() (int, float64) {
+	if a.s == nil {
+		return 0, 0
+	}
+	return a.s.Stats()
+}
