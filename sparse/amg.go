@@ -34,8 +34,22 @@ const (
 //
 // Setup builds the whole hierarchy; with ReuseAggregates it keeps the
 // aggregates of the first Setup for later values of the same pattern and
-// redoes only the numeric work (smoothing, Galerkin products, coarse LU),
-// the usual choice inside Newton's method.
+// redoes only the numeric work (smoothing, Galerkin products, coarse LU).
+// With Lag it goes further: a later Setup with the same pattern only takes
+// the new values into the finest level, where the smoother and the
+// residual use them, and keeps the coarse levels of the last full Setup,
+// until Renew asks for a new hierarchy. The preconditioner stays
+// symmetric and positive definite, so CG still converges to the current
+// matrix; only its rate suffers when the values have moved far (CG calls
+// Renew when it sees that, see CG). Inside Newton's method, where the
+// values change a little from step to step, this saves most of the set-up.
+//
+// On long vectors the smoother works on fixed blocks of rows in parallel
+// (hybrid Gauss–Seidel: Gauss–Seidel inside each block, the other blocks'
+// values taken from before the sweep), forward before the coarse
+// correction and backward after it, which keeps the cycle symmetric; the
+// blocks depend on the size alone, so results do not depend on the
+// machine.
 type AMG struct {
 	// Theta is the strength threshold, default DefaultAMGTheta.
 	Theta float64
@@ -45,8 +59,13 @@ type AMG struct {
 	MaxLevels int
 	// ReuseAggregates keeps the aggregation of the first Setup.
 	ReuseAggregates bool
+	// Lag keeps the coarse levels across Setups; see AMG.
+	Lag bool
 
 	levels []*amgLevel
+	sign   float64
+	fresh  bool // the last Setup built the hierarchy
+	renew  bool // the next Setup must build it
 	coarse *LU
 	cx, cb []float64
 }
@@ -59,6 +78,7 @@ type amgLevel struct {
 	p, r   csr // prolongation and its transpose
 	x, b   []float64
 	res    []float64
+	snap   []float64 // x before a parallel sweep
 	coarse []float64 // restricted residual, the next level's right side
 }
 
@@ -79,8 +99,28 @@ func (m *AMG) Levels() []int {
 	return s
 }
 
+// Fresh reports whether the last Setup built the hierarchy (rather than
+// refreshing the finest level of a lagging one).
+func (m *AMG) Fresh() bool { return m.fresh }
+
+// Renew makes the next Setup build the whole hierarchy again.
+func (m *AMG) Renew() { m.renew = true }
+
 // Setup builds the hierarchy for sign·A.
 func (m *AMG) Setup(a *Matrix, sign float64) error {
+	if m.Lag && !m.renew && len(m.levels) > 1 && m.sign == sign {
+		if top := m.levels[0].a; top.N == a.N && len(top.Col) == len(a.Col) && &top.Col[0] == &a.Col[0] {
+			for k, v := range a.Val {
+				top.Val[k] = sign * v
+			}
+			if err := m.levels[0].setDiag(); err != nil {
+				return err
+			}
+			m.fresh = false
+			return nil
+		}
+	}
+	m.renew, m.fresh, m.sign = false, true, sign
 	theta, maxCoarse, maxLevels := m.Theta, m.MaxCoarse, m.MaxLevels
 	if theta <= 0 {
 		theta = DefaultAMGTheta
@@ -139,9 +179,13 @@ func (m *AMG) Setup(a *Matrix, sign float64) error {
 
 func (l *amgLevel) setDiag() error {
 	a := l.a
-	l.diag = make([]int, a.N)
+	if len(l.diag) != a.N {
+		l.diag = make([]int, a.N)
+		for i := 0; i < a.N; i++ {
+			l.diag[i] = a.Index(i, i)
+		}
+	}
 	for i := 0; i < a.N; i++ {
-		l.diag[i] = a.Index(i, i)
 		if l.diag[i] < 0 || a.Val[l.diag[i]] == 0 {
 			return fmt.Errorf("%w: zero diagonal at row %d of a multigrid level of order %d", ErrSingular, i, a.N)
 		}
@@ -426,11 +470,19 @@ func (m *AMG) cycle(k int, x, b []float64) {
 	}
 	a := l.a
 	clear(x)
-	l.gaussSeidel(x, b, true)
-	a.MulVec(l.res, x)
-	for i := range l.res {
-		l.res[i] = b[i] - l.res[i]
-	}
+	l.smooth(x, b, true, true)
+	inBlocks(a.N, func(_, lo, hi int) {
+		for i := lo; i < hi; i++ {
+			s := b[i]
+			k0, k1 := a.RowPtr[i], a.RowPtr[i+1]
+			cs, vs := a.Col[k0:k1], a.Val[k0:k1]
+			vs = vs[:len(cs)]
+			for k, c := range cs {
+				s -= vs[k] * x[c]
+			}
+			l.res[i] = s
+		}
+	})
 	l.r.mulVec(l.coarse, l.res)
 	next := m.levels[k+1]
 	xc := next.x
@@ -439,15 +491,41 @@ func (m *AMG) cycle(k int, x, b []float64) {
 	}
 	m.cycle(k+1, xc, l.coarse)
 	l.p.mulVecAdd(x, xc)
-	l.gaussSeidel(x, b, false)
+	l.smooth(x, b, false, false)
 }
 
-func (l *amgLevel) gaussSeidel(x, b []float64, forward bool) {
+// smooth runs one Gauss–Seidel sweep, forward or backward; on long
+// vectors, the hybrid sweep of fixed blocks in parallel (see AMG). zero
+// says that x is zero on entry.
+func (l *amgLevel) smooth(x, b []float64, forward, zero bool) {
+	n := l.a.N
+	if n < parallelRows {
+		l.gaussSeidel(x, b, forward, 0, n, nil)
+		return
+	}
+	var snap []float64
+	if !zero {
+		if len(l.snap) != n {
+			l.snap = make([]float64, n)
+		}
+		snap = l.snap
+		copy(snap, x)
+	}
+	inBlocks(n, func(_, lo, hi int) { l.gaussSeidel(x, b, forward, lo, hi, snap) })
+}
+
+// gaussSeidel sweeps rows lo ≤ i < hi. With a snapshot, the columns
+// outside [lo, hi) are read from it (nil: they are zero); without one
+// (lo = 0, hi = n), from x.
+func (l *amgLevel) gaussSeidel(x, b []float64, forward bool, lo, hi int, snap []float64) {
 	a := l.a
-	n := a.N
-	i, step, end := 0, 1, n
+	if lo > 0 || hi < a.N {
+		l.blockSweep(x, b, forward, lo, hi, snap)
+		return
+	}
+	i, step, end := lo, 1, hi
 	if !forward {
-		i, step, end = n-1, -1, -1
+		i, step, end = hi-1, -1, lo-1
 	}
 	for ; i != end; i += step {
 		s := b[i]
@@ -463,21 +541,44 @@ func (l *amgLevel) gaussSeidel(x, b []float64, forward bool) {
 }
 
 func (c csr) mulVec(dst, x []float64) {
-	for i := 0; i < c.rows; i++ {
-		s := 0.0
-		for k := c.ptr[i]; k < c.ptr[i+1]; k++ {
-			s += c.val[k] * x[c.col[k]]
-		}
-		dst[i] = s
-	}
+	inBlocks(c.rows, func(_, lo, hi int) { mulRows(c.ptr, c.col, c.val, dst, x, lo, hi) })
 }
 
 func (c csr) mulVecAdd(dst, x []float64) {
-	for i := 0; i < c.rows; i++ {
-		s := 0.0
-		for k := c.ptr[i]; k < c.ptr[i+1]; k++ {
-			s += c.val[k] * x[c.col[k]]
+	inBlocks(c.rows, func(_, lo, hi int) {
+		for i := lo; i < hi; i++ {
+			s := 0.0
+			k0, k1 := c.ptr[i], c.ptr[i+1]
+			cs, vs := c.col[k0:k1], c.val[k0:k1]
+			vs = vs[:len(cs)]
+			for k, col := range cs {
+				s += vs[k] * x[col]
+			}
+			dst[i] += s
 		}
-		dst[i] += s
+	})
+}
+
+// blockSweep is gaussSeidel on the block [lo, hi) of a hybrid sweep.
+func (l *amgLevel) blockSweep(x, b []float64, forward bool, lo, hi int, snap []float64) {
+	a := l.a
+	i, step, end := lo, 1, hi
+	if !forward {
+		i, step, end = hi-1, -1, lo-1
+	}
+	for ; i != end; i += step {
+		s := b[i]
+		k0, k1 := a.RowPtr[i], a.RowPtr[i+1]
+		cols := a.Col[k0:k1]
+		vals := a.Val[k0:k1]
+		vals = vals[:len(cols)]
+		for k, c := range cols {
+			if c >= lo && c < hi {
+				s -= vals[k] * x[c]
+			} else if snap != nil {
+				s -= vals[k] * snap[c]
+			}
+		}
+		x[i] += s / a.Val[l.diag[i]]
 	}
 }

@@ -217,7 +217,7 @@ func (s *AutoSolver) Factorize(a *Matrix) error {
 	}
 	if symmetric {
 		if s.cg == nil {
-			s.cg = &CG{iterBase{Precond: &AMG{ReuseAggregates: true}}}
+			s.cg = &CG{iterBase{Precond: &AMG{ReuseAggregates: true, Lag: true}}}
 		}
 		s.chosen = s.cg
 	} else {
