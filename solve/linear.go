@@ -56,13 +56,27 @@ func Auto(n int) LinearSolver {
 // Analyse orders and analyses the pattern once, and sparse.Auto chooses a
 // direct or an iterative solver by the work the ordering predicts.
 type SparseAuto struct {
-	s *sparse.AutoSolver
+	s   *sparse.AutoSolver
+	tol float64
 }
 
 // Analyse orders the pattern and chooses the solver.
 func (a *SparseAuto) Analyse(m *sparse.Matrix) error {
 	a.s = sparse.Auto(m)
+	if a.tol > 0 {
+		a.s.SetTolerance(a.tol)
+	}
 	return nil
+}
+
+// SetTolerance sets the relative residual ‖b − A·x‖₂/‖b‖₂ that the next
+// solves must reach when the chosen solver iterates (a direct one solves
+// exactly); Newton sets it for each step (inexact Newton).
+func (a *SparseAuto) SetTolerance(rel float64) {
+	a.tol = rel
+	if a.s != nil {
+		a.s.SetTolerance(rel)
+	}
 }
 
 // Factorize factorizes m's values (or sets up the preconditioner).
