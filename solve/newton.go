@@ -318,9 +318,9 @@ type work struct {
 	// lastNorm is ‖D·F‖₂ of the last inexact Newton step's right side
 	// and lastEta its forcing term (0 before the first).
 	lastNorm, lastEta float64
-	capacity  []float64
-	dtau      float64 // the last pseudo time step; 0 until the first
-	minShift  []float64
+	capacity          []float64
+	dtau              float64 // the last pseudo time step; 0 until the first
+	minShift          []float64
 	// lastShifted is set when the last step taken was pseudo-transient.
 	lastShifted bool
 }
