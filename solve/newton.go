@@ -489,7 +489,7 @@ func (w *work) direction(x []float64) (bool, error) {
 const (
 	etaGamma = 0.9
 	etaAlpha = 2
-	etaMax   = 0.1
+	etaMax   = 0.01
 	etaSafe  = 0.1
 	// etaFinal is the tolerance of a step taken where every residual is
 	// already within tolerance: the step test that decides convergence is
