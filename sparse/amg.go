@@ -61,6 +61,10 @@ type AMG struct {
 	ReuseAggregates bool
 	// Lag keeps the coarse levels across Setups; see AMG.
 	Lag bool
+	// SmoothLevels, when positive, is the number of finest levels whose
+	// prolongation is smoothed; the coarser ones use the piecewise
+	// constant one, which keeps their operators sparse. Zero smooths all.
+	SmoothLevels int
 
 	levels []*amgLevel
 	sign   float64
@@ -73,7 +77,8 @@ type AMG struct {
 type amgLevel struct {
 	a      *Matrix // the operator of this level, sign included
 	diag   []int
-	agg    []int // aggregate of each node, -1 if none
+	inv    []float64 // 1/a_ii
+	agg    []int     // aggregate of each node, -1 if none
 	nagg   int
 	p, r   csr // prolongation and its transpose
 	x, b   []float64
@@ -97,6 +102,15 @@ func (m *AMG) Levels() []int {
 		s = append(s, l.a.N)
 	}
 	return s
+}
+
+// smoothed returns how many of the finest levels get a smoothed
+// prolongation.
+func (m *AMG) smoothed() int {
+	if m.SmoothLevels == 0 {
+		return 1 << 30
+	}
+	return m.SmoothLevels
 }
 
 // Fresh reports whether the last Setup built the hierarchy (rather than
@@ -161,7 +175,7 @@ func (m *AMG) Setup(a *Matrix, sign float64) error {
 			l.agg = nil
 			break // no useful coarsening
 		}
-		l.prolongation()
+		l.prolongation(depth < m.smoothed())
 		cur = galerkin(l.r, cur, l.p)
 		n := l.a.N
 		l.x, l.b, l.res = make([]float64, n), make([]float64, n), make([]float64, n)
@@ -185,10 +199,14 @@ func (l *amgLevel) setDiag() error {
 			l.diag[i] = a.Index(i, i)
 		}
 	}
+	if len(l.inv) != a.N {
+		l.inv = make([]float64, a.N)
+	}
 	for i := 0; i < a.N; i++ {
 		if l.diag[i] < 0 || a.Val[l.diag[i]] == 0 {
 			return fmt.Errorf("%w: zero diagonal at row %d of a multigrid level of order %d", ErrSingular, i, a.N)
 		}
+		l.inv[i] = 1 / a.Val[l.diag[i]]
 	}
 	return nil
 }
@@ -274,10 +292,13 @@ func (l *amgLevel) aggregate(theta float64) {
 }
 
 // prolongation forms P = (I − ω·D⁻¹·A)·P̂ and R = Pᵀ.
-func (l *amgLevel) prolongation() {
+func (l *amgLevel) prolongation(smooth bool) {
 	a := l.a
 	n := a.N
-	omega := 4.0 / 3.0 / l.spectralRadius()
+	omega := 0.0
+	if smooth {
+		omega = 4.0 / 3.0 / l.spectralRadius()
+	}
 	p := csr{rows: n, cols: l.nagg, ptr: make([]int, n+1),
 		col: make([]int, 0, len(a.Col)+n), val: make([]float64, 0, len(a.Col)+n)}
 	acc := make([]float64, l.nagg)
@@ -287,6 +308,15 @@ func (l *amgLevel) prolongation() {
 	}
 	var touched []int
 	for i := 0; i < n; i++ {
+		if !smooth {
+			// The piecewise constant prolongation.
+			if g := l.agg[i]; g >= 0 {
+				p.col = append(p.col, g)
+				p.val = append(p.val, 1)
+			}
+			p.ptr[i+1] = len(p.col)
+			continue
+		}
 		touched = touched[:0]
 		if g := l.agg[i]; g >= 0 {
 			acc[g] = 1
@@ -377,50 +407,59 @@ func (c csr) transpose() csr {
 }
 
 // mul returns x·y (Gustavson's row-by-row product) with sorted rows: a
-// counting pass sizes the result, a second pass fills it.
+// counting pass sizes the result, a second pass fills it; both work on
+// blocks of rows in parallel.
 func mul(x, y csr) csr {
 	z := csr{rows: x.rows, cols: y.cols, ptr: make([]int, x.rows+1)}
-	where := make([]int, y.cols)
-	for i := range where {
-		where[i] = -1
-	}
-	for i := 0; i < x.rows; i++ {
-		c := 0
-		for k := x.ptr[i]; k < x.ptr[i+1]; k++ {
-			for _, col := range y.col[y.ptr[x.col[k]]:y.ptr[x.col[k]+1]] {
-				if where[col] != i {
-					where[col] = i
-					c++
+	inBlocks(x.rows, func(_, lo, hi int) {
+		where := make([]int32, y.cols)
+		for i := range where {
+			where[i] = -1
+		}
+		for i := lo; i < hi; i++ {
+			c := 0
+			for k := x.ptr[i]; k < x.ptr[i+1]; k++ {
+				for _, col := range y.col[y.ptr[x.col[k]]:y.ptr[x.col[k]+1]] {
+					if where[col] != int32(i) {
+						where[col] = int32(i)
+						c++
+					}
 				}
 			}
+			z.ptr[i+1] = c
 		}
-		z.ptr[i+1] = z.ptr[i] + c
+	})
+	for i := 0; i < x.rows; i++ {
+		z.ptr[i+1] += z.ptr[i]
 	}
 	z.col = make([]int, z.ptr[x.rows])
 	z.val = make([]float64, z.ptr[x.rows])
-	acc := make([]float64, y.cols)
-	for i := range where {
-		where[i] = -1
-	}
-	for i := 0; i < x.rows; i++ {
-		row := z.col[z.ptr[i]:z.ptr[i]:z.ptr[i+1]]
-		for k := x.ptr[i]; k < x.ptr[i+1]; k++ {
-			j, v := x.col[k], x.val[k]
-			for q := y.ptr[j]; q < y.ptr[j+1]; q++ {
-				c := y.col[q]
-				if where[c] != i {
-					where[c] = i
-					acc[c] = 0
-					row = append(row, c)
+	inBlocks(x.rows, func(_, lo, hi int) {
+		where := make([]int32, y.cols)
+		for i := range where {
+			where[i] = -1
+		}
+		acc := make([]float64, y.cols)
+		for i := lo; i < hi; i++ {
+			row := z.col[z.ptr[i]:z.ptr[i]:z.ptr[i+1]]
+			for k := x.ptr[i]; k < x.ptr[i+1]; k++ {
+				j, v := x.col[k], x.val[k]
+				for q := y.ptr[j]; q < y.ptr[j+1]; q++ {
+					c := y.col[q]
+					if where[c] != int32(i) {
+						where[c] = int32(i)
+						acc[c] = 0
+						row = append(row, c)
+					}
+					acc[c] += v * y.val[q]
 				}
-				acc[c] += v * y.val[q]
+			}
+			slices.Sort(row)
+			for k, c := range row {
+				z.val[z.ptr[i]+k] = acc[c]
 			}
 		}
-		slices.Sort(row)
-		for k, c := range row {
-			z.val[z.ptr[i]+k] = acc[c]
-		}
-	}
+	})
 	return z
 }
 
@@ -515,28 +554,35 @@ func (l *amgLevel) smooth(x, b []float64, forward, zero bool) {
 }
 
 // gaussSeidel sweeps rows lo ≤ i < hi. With a snapshot, the columns
-// outside [lo, hi) are read from it (nil: they are zero); without one
-// (lo = 0, hi = n), from x.
+// outside [lo, hi) are read from it (nil: they are zero); when the block
+// is the whole matrix, from x.
 func (l *amgLevel) gaussSeidel(x, b []float64, forward bool, lo, hi int, snap []float64) {
 	a := l.a
-	if lo > 0 || hi < a.N {
-		l.blockSweep(x, b, forward, lo, hi, snap)
-		return
-	}
 	i, step, end := lo, 1, hi
 	if !forward {
 		i, step, end = hi-1, -1, lo-1
 	}
 	for ; i != end; i += step {
 		s := b[i]
-		lo, hi := a.RowPtr[i], a.RowPtr[i+1]
-		cols := a.Col[lo:hi]
-		vals := a.Val[lo:hi]
+		k0, k1 := a.RowPtr[i], a.RowPtr[i+1]
+		cols := a.Col[k0:k1]
+		vals := a.Val[k0:k1]
 		vals = vals[:len(cols)]
-		for k, c := range cols {
-			s -= vals[k] * x[c]
+		if len(cols) > 0 && (cols[0] < lo || cols[len(cols)-1] >= hi) {
+			// A row on the edge of its block.
+			for k, c := range cols {
+				if c >= lo && c < hi {
+					s -= vals[k] * x[c]
+				} else if snap != nil {
+					s -= vals[k] * snap[c]
+				}
+			}
+		} else {
+			for k, c := range cols {
+				s -= vals[k] * x[c]
+			}
 		}
-		x[i] += s / a.Val[l.diag[i]]
+		x[i] += s * l.inv[i]
 	}
 }
 
