@@ -87,6 +87,12 @@ type KindResult struct {
 // The linear systems are solved with symmetric diagonal scaling, J̃ = DJD
 // with D_ii = 1/√|J_ii|, which keeps a symmetric Jacobian symmetric and
 // makes networks whose conductances span many decades well conditioned.
+// A linear solver that iterates (one with a SetTolerance(float64) method,
+// as SparseAuto) solves each step only as accurately as the progress of
+// the iteration calls for (inexact Newton with Eisenstat and Walker's
+// forcing terms, from 0.01 at the first step); a step taken where every
+// residual is already within tolerance, the one whose length decides
+// convergence, is solved to a relative residual of 1e-8.
 func Newton(p Problem, x0 []float64, s Settings) Result {
 	s = s.withDefaults()
 	n := p.Size()

@@ -54,6 +54,12 @@
 //   - ConditionEstimate: Hager's 1-norm estimator in Higham's form, using a
 //     factorisation; never computed by Factorize, only on request.
 //
+// On long vectors (from 2^14 rows) the iterative solvers and the
+// multigrid cycle work on two fixed blocks of rows in parallel: products,
+// dot products (partial sums added in block order) and a hybrid
+// Gauss–Seidel smoother. The blocks depend on the size alone, so a solve
+// gives the same bits on every run and machine.
+//
 // Pivots are judged against DefaultPivotTol times the largest magnitude of
 // their row. LU factorisations are not rank-revealing: a singular matrix
 // whose pivots all stay large (an air stream with no outlet, say) passes
