@@ -103,7 +103,7 @@ type amgLevel struct {
 type csr struct {
 	rows, cols int
 	ptr        []int
-	col        []int
+	col        []int32 // column indices: 4 bytes each halve the index memory
 	val        []float64
 }
 
@@ -320,7 +320,7 @@ func (l *amgLevel) prolongation(smooth bool) {
 		omega = 4.0 / 3.0 / l.spectralRadius()
 	}
 	p := csr{rows: n, cols: l.nagg, ptr: make([]int, n+1),
-		col: make([]int, 0, len(a.Col)+n), val: make([]float64, 0, len(a.Col)+n)}
+		col: make([]int32, 0, len(a.Col)+n), val: make([]float64, 0, len(a.Col)+n)}
 	acc := make([]float64, l.nagg)
 	where := make([]int, l.nagg)
 	for i := range where {
@@ -331,7 +331,7 @@ func (l *amgLevel) prolongation(smooth bool) {
 		if !smooth {
 			// The piecewise constant prolongation.
 			if g := l.agg[i]; g >= 0 {
-				p.col = append(p.col, g)
+				p.col = append(p.col, int32(g))
 				p.val = append(p.val, 1)
 			}
 			p.ptr[i+1] = len(p.col)
@@ -359,7 +359,7 @@ func (l *amgLevel) prolongation(smooth bool) {
 		slices.Sort(touched)
 		for _, g := range touched {
 			if acc[g] != 0 {
-				p.col = append(p.col, g)
+				p.col = append(p.col, int32(g))
 				p.val = append(p.val, acc[g])
 			}
 		}
@@ -407,7 +407,7 @@ func (l *amgLevel) spectralRadius() float64 {
 }
 
 func (c csr) transpose() csr {
-	t := csr{rows: c.cols, cols: c.rows, ptr: make([]int, c.cols+1), col: make([]int, len(c.col)), val: make([]float64, len(c.val))}
+	t := csr{rows: c.cols, cols: c.rows, ptr: make([]int, c.cols+1), col: make([]int32, len(c.col)), val: make([]float64, len(c.val))}
 	for _, j := range c.col {
 		t.ptr[j+1]++
 	}
@@ -418,7 +418,7 @@ func (c csr) transpose() csr {
 	for i := 0; i < c.rows; i++ {
 		for k := c.ptr[i]; k < c.ptr[i+1]; k++ {
 			j := c.col[k]
-			t.col[next[j]] = i
+			t.col[next[j]] = int32(i)
 			t.val[next[j]] = c.val[k]
 			next[j]++
 		}
@@ -429,17 +429,17 @@ func (c csr) transpose() csr {
 // mul returns x·y (Gustavson's row-by-row product) with sorted rows: a
 // counting pass sizes the result, a second pass fills it; both work on
 // blocks of rows in parallel.
-func mul(x, y csr) csr {
-	z := csr{rows: x.rows, cols: y.cols, ptr: make([]int, x.rows+1)}
-	inBlocks(x.rows, func(_, lo, hi int) {
+func mul[X int | int32](rows int, xptr []int, xcol []X, xval []float64, y csr) csr {
+	z := csr{rows: rows, cols: y.cols, ptr: make([]int, rows+1)}
+	inBlocks(rows, func(_, lo, hi int) {
 		where := make([]int32, y.cols)
 		for i := range where {
 			where[i] = -1
 		}
 		for i := lo; i < hi; i++ {
 			c := 0
-			for k := x.ptr[i]; k < x.ptr[i+1]; k++ {
-				for _, col := range y.col[y.ptr[x.col[k]]:y.ptr[x.col[k]+1]] {
+			for k := xptr[i]; k < xptr[i+1]; k++ {
+				for _, col := range y.col[y.ptr[xcol[k]]:y.ptr[xcol[k]+1]] {
 					if where[col] != int32(i) {
 						where[col] = int32(i)
 						c++
@@ -449,12 +449,12 @@ func mul(x, y csr) csr {
 			z.ptr[i+1] = c
 		}
 	})
-	for i := 0; i < x.rows; i++ {
+	for i := 0; i < rows; i++ {
 		z.ptr[i+1] += z.ptr[i]
 	}
-	z.col = make([]int, z.ptr[x.rows])
-	z.val = make([]float64, z.ptr[x.rows])
-	inBlocks(x.rows, func(_, lo, hi int) {
+	z.col = make([]int32, z.ptr[rows])
+	z.val = make([]float64, z.ptr[rows])
+	inBlocks(rows, func(_, lo, hi int) {
 		where := make([]int32, y.cols)
 		for i := range where {
 			where[i] = -1
@@ -462,8 +462,8 @@ func mul(x, y csr) csr {
 		acc := make([]float64, y.cols)
 		for i := lo; i < hi; i++ {
 			row := z.col[z.ptr[i]:z.ptr[i]:z.ptr[i+1]]
-			for k := x.ptr[i]; k < x.ptr[i+1]; k++ {
-				j, v := x.col[k], x.val[k]
+			for k := xptr[i]; k < xptr[i+1]; k++ {
+				j, v := xcol[k], xval[k]
 				for q := y.ptr[j]; q < y.ptr[j+1]; q++ {
 					c := y.col[q]
 					if where[c] != int32(i) {
@@ -485,24 +485,24 @@ func mul(x, y csr) csr {
 
 // galerkin returns R·A·P as a square Matrix with its full diagonal.
 func galerkin(r csr, a *Matrix, p csr) *Matrix {
-	ac := csr{rows: a.N, cols: a.N, ptr: a.RowPtr, col: a.Col, val: a.Val}
-	c := mul(r, mul(ac, p))
+	ap := mul(a.N, a.RowPtr, a.Col, a.Val, p)
+	c := mul(r.rows, r.ptr, r.col, r.val, ap)
 	m := &Matrix{N: c.rows, RowPtr: make([]int, c.rows+1),
 		Col: make([]int, 0, len(c.col)+c.rows), Val: make([]float64, 0, len(c.col)+c.rows)}
 	for i := 0; i < c.rows; i++ {
 		hasDiag := false
 		for k := c.ptr[i]; k < c.ptr[i+1]; k++ {
-			if c.col[k] == i {
+			if int(c.col[k]) == i {
 				hasDiag = true
 			}
 		}
 		for k := c.ptr[i]; k < c.ptr[i+1]; k++ {
-			if !hasDiag && c.col[k] > i {
+			if !hasDiag && int(c.col[k]) > i {
 				m.Col = append(m.Col, i)
 				m.Val = append(m.Val, 0)
 				hasDiag = true
 			}
-			m.Col = append(m.Col, c.col[k])
+			m.Col = append(m.Col, int(c.col[k]))
 			m.Val = append(m.Val, c.val[k])
 		}
 		if !hasDiag {

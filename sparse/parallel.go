@@ -61,7 +61,7 @@ func sumBlocks(n int, f func(lo, hi int) float64) float64 {
 }
 
 // mulRows sets dst[i] = Σ_k val[k]·x[col[k]] for rows lo ≤ i < hi.
-func mulRows(ptr, col []int, val, dst, x []float64, lo, hi int) {
+func mulRows[I int | int32](ptr []int, col []I, val, dst, x []float64, lo, hi int) {
 	for i := lo; i < hi; i++ {
 		s := 0.0
 		k0, k1 := ptr[i], ptr[i+1]
