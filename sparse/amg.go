@@ -95,7 +95,8 @@ type amgLevel struct {
 	p, r   csr // prolongation and its transpose
 	x, b   []float64
 	res    []float64
-	snap   []float64 // x before a parallel sweep
+	snap   []float64 // x before a parallel sweep, at the halo
+	halo   []int32   // the columns that rows of another block read
 	coarse []float64 // restricted residual, the next level's right side
 }
 
@@ -566,11 +567,34 @@ func (l *amgLevel) smooth(x, b []float64, forward, zero bool) {
 	if !zero {
 		if len(l.snap) != n {
 			l.snap = make([]float64, n)
+			l.halo = l.findHalo()
 		}
 		snap = l.snap
-		copy(snap, x)
+		for _, c := range l.halo {
+			snap[c] = x[c]
+		}
 	}
 	inBlocks(n, func(_, lo, hi int) { l.gaussSeidel(x, b, forward, lo, hi, snap) })
+}
+
+// findHalo returns the columns that some row of another block reads, the
+// only values of x a hybrid sweep needs from before it.
+func (l *amgLevel) findHalo() []int32 {
+	a := l.a
+	seen := make([]bool, a.N)
+	var halo []int32
+	for b := 0; b < blocks; b++ {
+		lo, hi := split(a.N, b)
+		for i := lo; i < hi; i++ {
+			for _, c := range a.Col[a.RowPtr[i]:a.RowPtr[i+1]] {
+				if (c < lo || c >= hi) && !seen[c] {
+					seen[c] = true
+					halo = append(halo, int32(c))
+				}
+			}
+		}
+	}
+	return halo
 }
 
 // gaussSeidel sweeps rows lo ≤ i < hi. With a snapshot, the columns

@@ -135,8 +135,9 @@ func (s *AutoSolver) Analyse(a *Matrix) error {
 		}
 		s.sym = sym
 	}
-	s.patPtr = append(s.patPtr[:0], a.RowPtr...)
-	s.patCol = append(s.patCol[:0], a.Col...)
+	// The pattern is kept by reference: it does not change (see Solver),
+	// and a copy would cost as much memory as the matrix's indices.
+	s.patPtr, s.patCol = a.RowPtr, a.Col
 	s.analysed = true
 	return nil
 }

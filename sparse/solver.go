@@ -194,6 +194,9 @@ func samePattern(a *Matrix, n int, ptr, col []int) bool {
 	if a.N != n || len(a.Col) != len(col) || len(a.RowPtr) != len(ptr) {
 		return false
 	}
+	if len(col) > 0 && &a.Col[0] == &col[0] && &a.RowPtr[0] == &ptr[0] {
+		return true // the very same arrays
+	}
 	for i, v := range ptr {
 		if a.RowPtr[i] != v {
 			return false
