@@ -320,51 +320,73 @@ func (l *amgLevel) prolongation(smooth bool) {
 	if smooth {
 		omega = 4.0 / 3.0 / l.spectralRadius()
 	}
-	p := csr{rows: n, cols: l.nagg, ptr: make([]int, n+1),
-		col: make([]int32, 0, len(a.Col)+n), val: make([]float64, 0, len(a.Col)+n)}
-	acc := make([]float64, l.nagg)
-	where := make([]int, l.nagg)
-	for i := range where {
-		where[i] = -1
-	}
-	var touched []int
-	for i := 0; i < n; i++ {
-		if !smooth {
-			// The piecewise constant prolongation.
-			if g := l.agg[i]; g >= 0 {
-				p.col = append(p.col, int32(g))
-				p.val = append(p.val, 1)
-			}
-			p.ptr[i+1] = len(p.col)
-			continue
+	p := csr{rows: n, cols: l.nagg, ptr: make([]int, n+1)}
+	// Each block of rows builds its part; the parts are joined in order.
+	var cols [blocks][]int32
+	var vals [blocks][]float64
+	inBlocks(n, func(b, lo, hi int) {
+		est := a.RowPtr[hi] - a.RowPtr[lo] + hi - lo
+		pc, pv := make([]int32, 0, est), make([]float64, 0, est)
+		acc := make([]float64, l.nagg)
+		where := make([]int, l.nagg)
+		for i := range where {
+			where[i] = -1
 		}
-		touched = touched[:0]
-		if g := l.agg[i]; g >= 0 {
-			acc[g] = 1
-			where[g] = i
-			touched = append(touched, g)
-		}
-		s := -omega / a.Val[l.diag[i]]
-		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
-			g := l.agg[a.Col[k]]
-			if g < 0 {
+		var touched []int
+		for i := lo; i < hi; i++ {
+			if !smooth {
+				// The piecewise constant prolongation.
+				if g := l.agg[i]; g >= 0 {
+					pc = append(pc, int32(g))
+					pv = append(pv, 1)
+				}
+				p.ptr[i+1] = len(pc)
 				continue
 			}
-			if where[g] != i {
+			touched = touched[:0]
+			if g := l.agg[i]; g >= 0 {
+				acc[g] = 1
 				where[g] = i
-				acc[g] = 0
 				touched = append(touched, g)
 			}
-			acc[g] += s * a.Val[k]
-		}
-		slices.Sort(touched)
-		for _, g := range touched {
-			if acc[g] != 0 {
-				p.col = append(p.col, int32(g))
-				p.val = append(p.val, acc[g])
+			s := -omega / a.Val[l.diag[i]]
+			for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
+				g := l.agg[a.Col[k]]
+				if g < 0 {
+					continue
+				}
+				if where[g] != i {
+					where[g] = i
+					acc[g] = 0
+					touched = append(touched, g)
+				}
+				acc[g] += s * a.Val[k]
 			}
+			slices.Sort(touched)
+			for _, g := range touched {
+				if acc[g] != 0 {
+					pc = append(pc, int32(g))
+					pv = append(pv, acc[g])
+				}
+			}
+			p.ptr[i+1] = len(pc) // within the block, shifted below
 		}
-		p.ptr[i+1] = len(p.col)
+		cols[b], vals[b] = pc, pv
+	})
+	total := 0
+	for b := range cols {
+		total += len(cols[b])
+	}
+	p.col, p.val = make([]int32, 0, total), make([]float64, 0, total)
+	for b := range cols {
+		lo, hi := split(n, b)
+		off := len(p.col)
+		for i := lo + 1; i <= hi; i++ {
+			p.ptr[i] += off
+		}
+		p.col = append(p.col, cols[b]...)
+		p.val = append(p.val, vals[b]...)
+		cols[b], vals[b] = nil, nil
 	}
 	l.p = p
 	l.r = p.transpose()
