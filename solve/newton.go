@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"runtime"
 	"strings"
 
 	"github.com/heatgraph/heatgraph/sparse"
@@ -542,13 +543,29 @@ func samePattern(m *sparse.Matrix) *sparse.Matrix {
 	return &sparse.Matrix{N: m.N, RowPtr: m.RowPtr, Col: m.Col, Val: make([]float64, len(m.Val))}
 }
 
-// scaleInto sets dst = D·src·D.
+// scaleInto sets dst = D·src·D, on two halves of the rows at once for a
+// large matrix (each entry is computed alone, so the result is the same).
 func (w *work) scaleInto(dst, src *sparse.Matrix) {
-	for i := 0; i < src.N; i++ {
-		for k := src.RowPtr[i]; k < src.RowPtr[i+1]; k++ {
-			dst.Val[k] = src.Val[k] * w.d[i] * w.d[src.Col[k]]
+	rows := func(lo, hi int) {
+		for i := lo; i < hi; i++ {
+			di := w.d[i]
+			for k := src.RowPtr[i]; k < src.RowPtr[i+1]; k++ {
+				dst.Val[k] = src.Val[k] * di * w.d[src.Col[k]]
+			}
 		}
 	}
+	n := src.N
+	if n < 1<<14 || runtime.GOMAXPROCS(0) < 2 {
+		rows(0, n)
+		return
+	}
+	done := make(chan struct{})
+	go func() {
+		rows(n/2, n)
+		close(done)
+	}()
+	rows(0, n/2)
+	<-done
 }
 
 // pseudoStep solves (J − S/Δτ)·Δx = −F; see Newton.

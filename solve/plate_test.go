@@ -158,29 +158,46 @@ func (p *plate) Pattern() *sparse.Matrix {
 	return m
 }
 
-// Evaluate gathers each cell's balance from its neighbours' temperatures.
+// Evaluate gathers each cell's balance from its neighbours' temperatures,
+// on two halves of the cells at once when they are many.
 func (p *plate) Evaluate(x, f []float64, jac *sparse.Matrix, mag []float64) error {
 	for _, t := range x {
 		if !(t > 0) {
 			return errBelowZero
 		}
 	}
-	const ta4 = plateAmb * plateAmb * plateAmb * plateAmb
-	g := p.g
 	var rp, col []int
 	var val []float64
 	if jac != nil {
 		rp, col, val = jac.RowPtr, jac.Col, jac.Val
-	}
-	pat := p.Pattern
-	if jac == nil {
+	} else {
 		// The residual alone: walk the pattern of a cached matrix.
 		if p.pat == nil {
-			p.pat = pat()
+			p.pat = p.Pattern()
 		}
 		rp, col = p.pat.RowPtr, p.pat.Col
 	}
-	for i, ti := range x {
+	n := len(x)
+	if n < 1<<14 {
+		p.cells(0, n, x, f, rp, col, val, mag)
+		return nil
+	}
+	done := make(chan struct{})
+	go func() {
+		p.cells(n/2, n, x, f, rp, col, val, mag)
+		close(done)
+	}()
+	p.cells(0, n/2, x, f, rp, col, val, mag)
+	<-done
+	return nil
+}
+
+// cells evaluates cells from ≤ i < to.
+func (p *plate) cells(from, to int, x, f []float64, rp, col []int, val, mag []float64) {
+	const ta4 = plateAmb * plateAmb * plateAmb * plateAmb
+	g := p.g
+	for i := from; i < to; i++ {
+		ti := x[i]
 		lo, hi := rp[i], rp[i+1]
 		cond, abs := 0.0, 0.0
 		for _, c := range col[lo:hi] {
@@ -208,7 +225,6 @@ func (p *plate) Evaluate(x, f []float64, jac *sparse.Matrix, mag []float64) erro
 			}
 		}
 	}
-	return nil
 }
 
 // Capacity is each cell's heat capacity (FR-4 about 1850 kg/m³ and
