@@ -87,7 +87,7 @@ type AMG struct {
 }
 
 type amgLevel struct {
-	a      *Matrix // the operator of this level, sign included
+	a      *Matrix // the operator of this level, of A (not sign·A)
 	diag   []int
 	inv    []float64 // 1/a_ii
 	agg    []int     // aggregate of each node, -1 if none
@@ -133,13 +133,13 @@ func (m *AMG) Fresh() bool { return m.fresh }
 // Renew makes the next Setup build the whole hierarchy again.
 func (m *AMG) Renew() { m.renew = true }
 
-// Setup builds the hierarchy for sign·A.
+// Setup builds the hierarchy for sign·A. It keeps a reference to a for
+// its finest level, whose values must not change until the next Setup
+// (the iterative solvers pass their own copy of the matrix).
 func (m *AMG) Setup(a *Matrix, sign float64) error {
 	if m.Lag && !m.renew && len(m.levels) > 1 && m.sign == sign {
 		if top := m.levels[0].a; top.N == a.N && len(top.Col) == len(a.Col) && &top.Col[0] == &a.Col[0] {
-			for k, v := range a.Val {
-				top.Val[k] = sign * v
-			}
+			m.levels[0].a = a
 			if err := m.levels[0].setDiag(); err != nil {
 				return err
 			}
@@ -169,11 +169,10 @@ func (m *AMG) Setup(a *Matrix, sign float64) error {
 		old = nil
 	}
 	m.levels = m.levels[:0:0]
-	top := &Matrix{N: a.N, RowPtr: a.RowPtr, Col: a.Col, Val: make([]float64, len(a.Val))}
-	for k, v := range a.Val {
-		top.Val[k] = sign * v
-	}
-	cur := top
+	// The hierarchy is built for A itself, and Apply changes the sign of
+	// its result: (sign·A)⁻¹ = sign·A⁻¹. The finest level is a, not a
+	// copy.
+	cur := a
 	for depth := 0; ; depth++ {
 		l := &amgLevel{a: cur}
 		if err := l.setDiag(); err != nil {
@@ -540,6 +539,13 @@ func galerkin(r csr, a *Matrix, p csr) *Matrix {
 // Apply runs one V-cycle on (sign·A)·z = r from z = 0.
 func (m *AMG) Apply(z, r []float64) {
 	m.cycle(0, z, r)
+	if m.sign < 0 {
+		inBlocks(len(z), func(_, lo, hi int) {
+			for i := lo; i < hi; i++ {
+				z[i] = -z[i]
+			}
+		})
+	}
 }
 
 func (m *AMG) cycle(k int, x, b []float64) {
