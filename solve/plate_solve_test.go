@@ -141,3 +141,25 @@ func TestPlateIterativeStops(t *testing.T) {
 		}
 	}
 }
+
+// A mesh large enough for the solvers to split their work between
+// processors gives the same bits on every run.
+func TestPlateDeterministic(t *testing.T) {
+	p := newPlate(130, 130, 1)
+	var first []float64
+	for run := 0; run < 2; run++ {
+		r := Newton(p, p.start(), Settings{Linear: &iterativeOnly{}})
+		if r.Reason != Converged {
+			t.Fatalf("%v (%v)", r.Reason, r.Err)
+		}
+		if first == nil {
+			first = r.X
+			continue
+		}
+		for i := range first {
+			if first[i] != r.X[i] {
+				t.Fatalf("run %d differs at cell %d: %v against %v", run, i, r.X[i], first[i])
+			}
+		}
+	}
+}
