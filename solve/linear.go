@@ -69,9 +69,13 @@ func (a *SparseAuto) Analyse(m *sparse.Matrix) error {
 	return nil
 }
 
+// Tolerance returns the tolerance last set, 0 for the solvers' default.
+func (a *SparseAuto) Tolerance() float64 { return a.tol }
+
 // SetTolerance sets the relative residual ‖b − A·x‖₂/‖b‖₂ that the next
 // solves must reach when the chosen solver iterates (a direct one solves
-// exactly); Newton sets it for each step (inexact Newton).
+// exactly; 0 means the sparse solvers' default); Newton sets it for each
+// of its steps (inexact Newton) and gives the old one back at its end.
 func (a *SparseAuto) SetTolerance(rel float64) {
 	a.tol = rel
 	if a.s != nil {

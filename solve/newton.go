@@ -126,6 +126,16 @@ func Newton(p Problem, x0 []float64, s Settings) Result {
 		s.Linear = Auto(n)
 		w.s.Linear = s.Linear
 	}
+	if t, ok := s.Linear.(tolerant); ok {
+		// The forcing terms are Newton's own business: the caller's
+		// solver gets its tolerance back (a transient run goes on with
+		// the same solver).
+		prev := 0.0
+		if g, ok := s.Linear.(interface{ Tolerance() float64 }); ok {
+			prev = g.Tolerance()
+		}
+		defer t.SetTolerance(prev)
+	}
 	if err := p.Evaluate(x, w.f, w.jac, w.mag); err != nil {
 		res.Reason, res.Err = InvalidStart, err
 		return res

@@ -111,8 +111,9 @@ func TestPlateIterativeStops(t *testing.T) {
 	if r.Reason != Converged {
 		t.Fatalf("%v (%v)", r.Reason, r.Err)
 	}
-	// Loose steps far from the solution, a tight one to decide.
-	if n := len(lin.tols); n != r.Iterations || lin.tols[0] < 1e-3 || lin.tols[n-1] > 1e-8 {
+	// Loose steps far from the solution, a tight one to decide, and the
+	// solver's default given back at the end.
+	if n := len(lin.tols); n != r.Iterations+1 || lin.tols[0] < 1e-3 || lin.tols[n-2] > 1e-8 || lin.tols[n-1] != 0 {
 		t.Errorf("%d iterations, tolerances %.2g", r.Iterations, lin.tols)
 	}
 	// The exact Newton step at the solution.
@@ -160,6 +161,23 @@ func TestPlateDeterministic(t *testing.T) {
 			if first[i] != r.X[i] {
 				t.Fatalf("run %d differs at cell %d: %v against %v", run, i, r.X[i], first[i])
 			}
+		}
+	}
+}
+
+// Newton gives a solver that it made inexact its tolerance back, so that
+// a transient run that goes on with the same solver solves as tightly as
+// before.
+func TestNewtonRestoresTolerance(t *testing.T) {
+	p := newPlate(60, 60, 1)
+	for _, tol := range []float64{0, 1e-9} {
+		lin := &SparseAuto{}
+		lin.SetTolerance(tol)
+		if r := Newton(p, p.start(), Settings{Linear: lin}); r.Reason != Converged {
+			t.Fatalf("%v (%v)", r.Reason, r.Err)
+		}
+		if got := lin.Tolerance(); got != tol {
+			t.Errorf("tolerance %g after Newton, want %g", got, tol)
 		}
 	}
 }
