@@ -104,24 +104,41 @@ func checkLen(n int, x, b []float64) error {
 // equals its transpose to within rel times the larger of the two row scales
 // (an entry missing from the pattern counts as zero).
 func IsSymmetric(a *Matrix, rel float64) bool {
-	scale := rowScales(a, nil)
-	for i := 0; i < a.N; i++ {
-		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
-			j := a.Col[k]
-			if j <= i {
-				continue
+	scale := make([]float64, a.N)
+	inBlocks(a.N, func(_, lo, hi int) {
+		for i := lo; i < hi; i++ {
+			m := 0.0
+			for _, v := range a.Val[a.RowPtr[i]:a.RowPtr[i+1]] {
+				if v := math.Abs(v); v > m {
+					m = v
+				}
 			}
-			t := a.At(j, i)
-			if math.Abs(a.Val[k]-t) > rel*math.Max(scale[i], scale[j]) {
-				return false
+			scale[i] = m
+		}
+	})
+	var asym [blocks]bool
+	inBlocks(a.N, func(b, lo, hi int) {
+		for i := lo; i < hi; i++ {
+			for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
+				j := a.Col[k]
+				if j > i {
+					t := a.At(j, i)
+					if math.Abs(a.Val[k]-t) > rel*math.Max(scale[i], scale[j]) {
+						asym[b] = true
+						return
+					}
+				} else if j < i && a.Index(j, i) < 0 && math.Abs(a.Val[k]) > rel*math.Max(scale[i], scale[j]) {
+					// An entry below the diagonal whose transpose is
+					// missing.
+					asym[b] = true
+					return
+				}
 			}
 		}
-		// Entries below the diagonal whose transpose is missing.
-		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
-			j := a.Col[k]
-			if j < i && a.Index(j, i) < 0 && math.Abs(a.Val[k]) > rel*math.Max(scale[i], scale[j]) {
-				return false
-			}
+	})
+	for _, x := range asym {
+		if x {
+			return false
 		}
 	}
 	return true
