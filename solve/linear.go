@@ -56,13 +56,31 @@ func Auto(n int) LinearSolver {
 // Analyse orders and analyses the pattern once, and sparse.Auto chooses a
 // direct or an iterative solver by the work the ordering predicts.
 type SparseAuto struct {
-	s *sparse.AutoSolver
+	s   *sparse.AutoSolver
+	tol float64
 }
 
 // Analyse orders the pattern and chooses the solver.
 func (a *SparseAuto) Analyse(m *sparse.Matrix) error {
 	a.s = sparse.Auto(m)
+	if a.tol > 0 {
+		a.s.SetTolerance(a.tol)
+	}
 	return nil
+}
+
+// Tolerance returns the tolerance last set, 0 for the solvers' default.
+func (a *SparseAuto) Tolerance() float64 { return a.tol }
+
+// SetTolerance sets the relative residual ‖b − A·x‖₂/‖b‖₂ that the next
+// solves must reach when the chosen solver iterates (a direct one solves
+// exactly; 0 means the sparse solvers' default); Newton sets it for each
+// of its steps (inexact Newton) and gives the old one back at its end.
+func (a *SparseAuto) SetTolerance(rel float64) {
+	a.tol = rel
+	if a.s != nil {
+		a.s.SetTolerance(rel)
+	}
 }
 
 // Factorize factorizes m's values (or sets up the preconditioner).
@@ -147,4 +165,13 @@ func (d *DenseLU) Solve(x, b []float64) error {
 		return err
 	}
 	return nil
+}
+
+// Stats returns the iterations and relative residual of the last solve
+// when the chosen solver iterates, zeros for a direct one.
+func (a *SparseAuto) Stats() (int, float64) {
+	if a.s == nil {
+		return 0, 0
+	}
+	return a.s.Stats()
 }

@@ -11,6 +11,15 @@ const (
 	// DefaultAMGTheta is the strength-of-connection threshold: j is a
 	// strong neighbour of i when |a_ij| ≥ θ·√(|a_ii·a_jj|).
 	DefaultAMGTheta = 0.08
+	// DefaultAMGCoarseTheta is the strength threshold on the coarse
+	// levels. Their operators, Galerkin products with smoothed
+	// prolongations, couple every node to a wide neighbourhood by entries
+	// that fall off fast: with the fine level's threshold the aggregates
+	// there stay small and the next operators fill up (on a 100³ grid
+	// 165 entries a row on the third level, and 41 CG iterations to
+	// 1e-8), with this one they take in the whole neighbourhood (16
+	// iterations, the third level 20 times smaller).
+	DefaultAMGCoarseTheta = 0.01
 	// DefaultAMGMaxCoarse is the size at or below which a level is solved
 	// directly.
 	DefaultAMGMaxCoarse = 400
@@ -34,31 +43,60 @@ const (
 //
 // Setup builds the whole hierarchy; with ReuseAggregates it keeps the
 // aggregates of the first Setup for later values of the same pattern and
-// redoes only the numeric work (smoothing, Galerkin products, coarse LU),
-// the usual choice inside Newton's method.
+// redoes only the numeric work (smoothing, Galerkin products, coarse LU).
+// With Lag it goes further: a later Setup with the same pattern only takes
+// the new values into the finest level, where the smoother and the
+// residual use them, and keeps the coarse levels of the last full Setup,
+// until Renew asks for a new hierarchy. The preconditioner stays
+// symmetric and positive definite, so CG still converges to the current
+// matrix; only its rate suffers when the values have moved far (CG calls
+// Renew when it sees that, see CG). Inside Newton's method, where the
+// values change a little from step to step, this saves most of the set-up.
+//
+// On long vectors the smoother works on fixed blocks of rows in parallel
+// (hybrid Gauss–Seidel: Gauss–Seidel inside each block, the other blocks'
+// values taken from before the sweep), forward before the coarse
+// correction and backward after it, which keeps the cycle symmetric; the
+// blocks depend on the size alone, so results do not depend on the
+// machine.
 type AMG struct {
 	// Theta is the strength threshold, default DefaultAMGTheta.
 	Theta float64
+	// CoarseTheta is the strength threshold on the coarse levels,
+	// default DefaultAMGCoarseTheta.
+	CoarseTheta float64
 	// MaxCoarse is the coarsest size, default DefaultAMGMaxCoarse.
 	MaxCoarse int
 	// MaxLevels bounds the levels, default DefaultAMGMaxLevels.
 	MaxLevels int
 	// ReuseAggregates keeps the aggregation of the first Setup.
 	ReuseAggregates bool
+	// Lag keeps the coarse levels across Setups; see AMG.
+	Lag bool
+	// SmoothLevels, when positive, is the number of finest levels whose
+	// prolongation is smoothed; the coarser ones use the piecewise
+	// constant one, which keeps their operators sparse. Zero smooths all.
+	SmoothLevels int
 
 	levels []*amgLevel
+	sign   float64
+	fresh  bool // the last Setup built the hierarchy
+	renew  bool // the next Setup must build it
 	coarse *LU
 	cx, cb []float64
 }
 
 type amgLevel struct {
-	a      *Matrix // the operator of this level, sign included
+	a      *Matrix // the operator of this level, of A (not sign·A)
 	diag   []int
-	agg    []int // aggregate of each node, -1 if none
+	inv    []float64 // 1/a_ii
+	agg    []int     // aggregate of each node, -1 if none
 	nagg   int
 	p, r   csr // prolongation and its transpose
 	x, b   []float64
 	res    []float64
+	snap   []float64 // x before a parallel sweep, at the halo
+	halo   []int32   // the columns that rows of another block read
 	coarse []float64 // restricted residual, the next level's right side
 }
 
@@ -66,7 +104,7 @@ type amgLevel struct {
 type csr struct {
 	rows, cols int
 	ptr        []int
-	col        []int
+	col        []int32 // column indices: 4 bytes each halve the index memory
 	val        []float64
 }
 
@@ -79,8 +117,41 @@ func (m *AMG) Levels() []int {
 	return s
 }
 
-// Setup builds the hierarchy for sign·A.
+// smoothed returns how many of the finest levels get a smoothed
+// prolongation.
+func (m *AMG) smoothed() int {
+	if m.SmoothLevels == 0 {
+		return 1 << 30
+	}
+	return m.SmoothLevels
+}
+
+// Fresh reports whether the last Setup built the hierarchy (rather than
+// refreshing the finest level of a lagging one).
+func (m *AMG) Fresh() bool { return m.fresh }
+
+// Renew makes the next Setup build the whole hierarchy again.
+func (m *AMG) Renew() { m.renew = true }
+
+// Setup builds the hierarchy for sign·A. It keeps a reference to a for
+// its finest level, whose values must not change until the next Setup
+// (the iterative solvers pass their own copy of the matrix).
 func (m *AMG) Setup(a *Matrix, sign float64) error {
+	if m.Lag && !m.renew && len(m.levels) > 1 && m.sign == sign {
+		if top := m.levels[0].a; top.N == a.N && len(top.Col) == len(a.Col) && &top.Col[0] == &a.Col[0] {
+			m.levels[0].a = a
+			if err := m.levels[0].setDiag(); err != nil {
+				return err
+			}
+			m.fresh = false
+			return nil
+		}
+	}
+	m.renew, m.fresh, m.sign = false, true, sign
+	coarseTheta := m.CoarseTheta
+	if coarseTheta <= 0 {
+		coarseTheta = DefaultAMGCoarseTheta
+	}
 	theta, maxCoarse, maxLevels := m.Theta, m.MaxCoarse, m.MaxLevels
 	if theta <= 0 {
 		theta = DefaultAMGTheta
@@ -98,11 +169,10 @@ func (m *AMG) Setup(a *Matrix, sign float64) error {
 		old = nil
 	}
 	m.levels = m.levels[:0:0]
-	top := &Matrix{N: a.N, RowPtr: a.RowPtr, Col: a.Col, Val: make([]float64, len(a.Val))}
-	for k, v := range a.Val {
-		top.Val[k] = sign * v
-	}
-	cur := top
+	// The hierarchy is built for A itself, and Apply changes the sign of
+	// its result: (sign·A)⁻¹ = sign·A⁻¹. The finest level is a, not a
+	// copy.
+	cur := a
 	for depth := 0; ; depth++ {
 		l := &amgLevel{a: cur}
 		if err := l.setDiag(); err != nil {
@@ -115,13 +185,17 @@ func (m *AMG) Setup(a *Matrix, sign float64) error {
 		if depth < len(old) && old[depth].agg != nil && old[depth].a.N == cur.N {
 			l.agg, l.nagg = old[depth].agg, old[depth].nagg
 		} else {
-			l.aggregate(theta)
+			th := theta
+			if depth > 0 {
+				th = coarseTheta
+			}
+			l.aggregate(th)
 		}
 		if l.nagg == 0 || l.nagg >= cur.N*9/10 {
 			l.agg = nil
 			break // no useful coarsening
 		}
-		l.prolongation()
+		l.prolongation(depth < m.smoothed())
 		cur = galerkin(l.r, cur, l.p)
 		n := l.a.N
 		l.x, l.b, l.res = make([]float64, n), make([]float64, n), make([]float64, n)
@@ -139,12 +213,20 @@ func (m *AMG) Setup(a *Matrix, sign float64) error {
 
 func (l *amgLevel) setDiag() error {
 	a := l.a
-	l.diag = make([]int, a.N)
+	if len(l.diag) != a.N {
+		l.diag = make([]int, a.N)
+		for i := 0; i < a.N; i++ {
+			l.diag[i] = a.Index(i, i)
+		}
+	}
+	if len(l.inv) != a.N {
+		l.inv = make([]float64, a.N)
+	}
 	for i := 0; i < a.N; i++ {
-		l.diag[i] = a.Index(i, i)
 		if l.diag[i] < 0 || a.Val[l.diag[i]] == 0 {
 			return fmt.Errorf("%w: zero diagonal at row %d of a multigrid level of order %d", ErrSingular, i, a.N)
 		}
+		l.inv[i] = 1 / a.Val[l.diag[i]]
 	}
 	return nil
 }
@@ -230,46 +312,80 @@ func (l *amgLevel) aggregate(theta float64) {
 }
 
 // prolongation forms P = (I − ω·D⁻¹·A)·P̂ and R = Pᵀ.
-func (l *amgLevel) prolongation() {
+func (l *amgLevel) prolongation(smooth bool) {
 	a := l.a
 	n := a.N
-	omega := 4.0 / 3.0 / l.spectralRadius()
-	p := csr{rows: n, cols: l.nagg, ptr: make([]int, n+1),
-		col: make([]int, 0, len(a.Col)+n), val: make([]float64, 0, len(a.Col)+n)}
-	acc := make([]float64, l.nagg)
-	where := make([]int, l.nagg)
-	for i := range where {
-		where[i] = -1
+	omega := 0.0
+	if smooth {
+		omega = 4.0 / 3.0 / l.spectralRadius()
 	}
-	var touched []int
-	for i := 0; i < n; i++ {
-		touched = touched[:0]
-		if g := l.agg[i]; g >= 0 {
-			acc[g] = 1
-			where[g] = i
-			touched = append(touched, g)
+	p := csr{rows: n, cols: l.nagg, ptr: make([]int, n+1)}
+	// Each block of rows builds its part; the parts are joined in order.
+	var cols [blocks][]int32
+	var vals [blocks][]float64
+	inBlocks(n, func(b, lo, hi int) {
+		est := a.RowPtr[hi] - a.RowPtr[lo] + hi - lo
+		pc, pv := make([]int32, 0, est), make([]float64, 0, est)
+		acc := make([]float64, l.nagg)
+		where := make([]int, l.nagg)
+		for i := range where {
+			where[i] = -1
 		}
-		s := -omega / a.Val[l.diag[i]]
-		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
-			g := l.agg[a.Col[k]]
-			if g < 0 {
+		var touched []int
+		for i := lo; i < hi; i++ {
+			if !smooth {
+				// The piecewise constant prolongation.
+				if g := l.agg[i]; g >= 0 {
+					pc = append(pc, int32(g))
+					pv = append(pv, 1)
+				}
+				p.ptr[i+1] = len(pc)
 				continue
 			}
-			if where[g] != i {
+			touched = touched[:0]
+			if g := l.agg[i]; g >= 0 {
+				acc[g] = 1
 				where[g] = i
-				acc[g] = 0
 				touched = append(touched, g)
 			}
-			acc[g] += s * a.Val[k]
-		}
-		slices.Sort(touched)
-		for _, g := range touched {
-			if acc[g] != 0 {
-				p.col = append(p.col, g)
-				p.val = append(p.val, acc[g])
+			s := -omega / a.Val[l.diag[i]]
+			for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
+				g := l.agg[a.Col[k]]
+				if g < 0 {
+					continue
+				}
+				if where[g] != i {
+					where[g] = i
+					acc[g] = 0
+					touched = append(touched, g)
+				}
+				acc[g] += s * a.Val[k]
 			}
+			slices.Sort(touched)
+			for _, g := range touched {
+				if acc[g] != 0 {
+					pc = append(pc, int32(g))
+					pv = append(pv, acc[g])
+				}
+			}
+			p.ptr[i+1] = len(pc) // within the block, shifted below
 		}
-		p.ptr[i+1] = len(p.col)
+		cols[b], vals[b] = pc, pv
+	})
+	total := 0
+	for b := range cols {
+		total += len(cols[b])
+	}
+	p.col, p.val = make([]int32, 0, total), make([]float64, 0, total)
+	for b := range cols {
+		lo, hi := split(n, b)
+		off := len(p.col)
+		for i := lo + 1; i <= hi; i++ {
+			p.ptr[i] += off
+		}
+		p.col = append(p.col, cols[b]...)
+		p.val = append(p.val, vals[b]...)
+		cols[b], vals[b] = nil, nil
 	}
 	l.p = p
 	l.r = p.transpose()
@@ -313,7 +429,7 @@ func (l *amgLevel) spectralRadius() float64 {
 }
 
 func (c csr) transpose() csr {
-	t := csr{rows: c.cols, cols: c.rows, ptr: make([]int, c.cols+1), col: make([]int, len(c.col)), val: make([]float64, len(c.val))}
+	t := csr{rows: c.cols, cols: c.rows, ptr: make([]int, c.cols+1), col: make([]int32, len(c.col)), val: make([]float64, len(c.val))}
 	for _, j := range c.col {
 		t.ptr[j+1]++
 	}
@@ -324,7 +440,7 @@ func (c csr) transpose() csr {
 	for i := 0; i < c.rows; i++ {
 		for k := c.ptr[i]; k < c.ptr[i+1]; k++ {
 			j := c.col[k]
-			t.col[next[j]] = i
+			t.col[next[j]] = int32(i)
 			t.val[next[j]] = c.val[k]
 			next[j]++
 		}
@@ -333,73 +449,82 @@ func (c csr) transpose() csr {
 }
 
 // mul returns x·y (Gustavson's row-by-row product) with sorted rows: a
-// counting pass sizes the result, a second pass fills it.
-func mul(x, y csr) csr {
-	z := csr{rows: x.rows, cols: y.cols, ptr: make([]int, x.rows+1)}
-	where := make([]int, y.cols)
-	for i := range where {
-		where[i] = -1
-	}
-	for i := 0; i < x.rows; i++ {
-		c := 0
-		for k := x.ptr[i]; k < x.ptr[i+1]; k++ {
-			for _, col := range y.col[y.ptr[x.col[k]]:y.ptr[x.col[k]+1]] {
-				if where[col] != i {
-					where[col] = i
-					c++
+// counting pass sizes the result, a second pass fills it; both work on
+// blocks of rows in parallel.
+func mul[X int | int32](rows int, xptr []int, xcol []X, xval []float64, y csr) csr {
+	z := csr{rows: rows, cols: y.cols, ptr: make([]int, rows+1)}
+	inBlocks(rows, func(_, lo, hi int) {
+		where := make([]int32, y.cols)
+		for i := range where {
+			where[i] = -1
+		}
+		for i := lo; i < hi; i++ {
+			c := 0
+			for k := xptr[i]; k < xptr[i+1]; k++ {
+				for _, col := range y.col[y.ptr[xcol[k]]:y.ptr[xcol[k]+1]] {
+					if where[col] != int32(i) {
+						where[col] = int32(i)
+						c++
+					}
 				}
 			}
+			z.ptr[i+1] = c
 		}
-		z.ptr[i+1] = z.ptr[i] + c
+	})
+	for i := 0; i < rows; i++ {
+		z.ptr[i+1] += z.ptr[i]
 	}
-	z.col = make([]int, z.ptr[x.rows])
-	z.val = make([]float64, z.ptr[x.rows])
-	acc := make([]float64, y.cols)
-	for i := range where {
-		where[i] = -1
-	}
-	for i := 0; i < x.rows; i++ {
-		row := z.col[z.ptr[i]:z.ptr[i]:z.ptr[i+1]]
-		for k := x.ptr[i]; k < x.ptr[i+1]; k++ {
-			j, v := x.col[k], x.val[k]
-			for q := y.ptr[j]; q < y.ptr[j+1]; q++ {
-				c := y.col[q]
-				if where[c] != i {
-					where[c] = i
-					acc[c] = 0
-					row = append(row, c)
+	z.col = make([]int32, z.ptr[rows])
+	z.val = make([]float64, z.ptr[rows])
+	inBlocks(rows, func(_, lo, hi int) {
+		where := make([]int32, y.cols)
+		for i := range where {
+			where[i] = -1
+		}
+		acc := make([]float64, y.cols)
+		for i := lo; i < hi; i++ {
+			row := z.col[z.ptr[i]:z.ptr[i]:z.ptr[i+1]]
+			for k := xptr[i]; k < xptr[i+1]; k++ {
+				j, v := xcol[k], xval[k]
+				for q := y.ptr[j]; q < y.ptr[j+1]; q++ {
+					c := y.col[q]
+					if where[c] != int32(i) {
+						where[c] = int32(i)
+						acc[c] = 0
+						row = append(row, c)
+					}
+					acc[c] += v * y.val[q]
 				}
-				acc[c] += v * y.val[q]
+			}
+			slices.Sort(row)
+			for k, c := range row {
+				z.val[z.ptr[i]+k] = acc[c]
 			}
 		}
-		slices.Sort(row)
-		for k, c := range row {
-			z.val[z.ptr[i]+k] = acc[c]
-		}
-	}
+	})
 	return z
 }
 
 // galerkin returns R·A·P as a square Matrix with its full diagonal.
 func galerkin(r csr, a *Matrix, p csr) *Matrix {
-	ac := csr{rows: a.N, cols: a.N, ptr: a.RowPtr, col: a.Col, val: a.Val}
-	c := mul(r, mul(ac, p))
+	ap := mul(a.N, a.RowPtr, a.Col, a.Val, p)
+	c := mul(r.rows, r.ptr, r.col, r.val, ap)
 	m := &Matrix{N: c.rows, RowPtr: make([]int, c.rows+1),
 		Col: make([]int, 0, len(c.col)+c.rows), Val: make([]float64, 0, len(c.col)+c.rows)}
 	for i := 0; i < c.rows; i++ {
 		hasDiag := false
 		for k := c.ptr[i]; k < c.ptr[i+1]; k++ {
-			if c.col[k] == i {
+			if int(c.col[k]) == i {
 				hasDiag = true
 			}
 		}
 		for k := c.ptr[i]; k < c.ptr[i+1]; k++ {
-			if !hasDiag && c.col[k] > i {
+			if !hasDiag && int(c.col[k]) > i {
 				m.Col = append(m.Col, i)
 				m.Val = append(m.Val, 0)
 				hasDiag = true
 			}
-			m.Col = append(m.Col, c.col[k])
+			m.Col = append(m.Col, int(c.col[k]))
 			m.Val = append(m.Val, c.val[k])
 		}
 		if !hasDiag {
@@ -414,6 +539,13 @@ func galerkin(r csr, a *Matrix, p csr) *Matrix {
 // Apply runs one V-cycle on (sign·A)·z = r from z = 0.
 func (m *AMG) Apply(z, r []float64) {
 	m.cycle(0, z, r)
+	if m.sign < 0 {
+		inBlocks(len(z), func(_, lo, hi int) {
+			for i := lo; i < hi; i++ {
+				z[i] = -z[i]
+			}
+		})
+	}
 }
 
 func (m *AMG) cycle(k int, x, b []float64) {
@@ -426,11 +558,19 @@ func (m *AMG) cycle(k int, x, b []float64) {
 	}
 	a := l.a
 	clear(x)
-	l.gaussSeidel(x, b, true)
-	a.MulVec(l.res, x)
-	for i := range l.res {
-		l.res[i] = b[i] - l.res[i]
-	}
+	l.smooth(x, b, true, true)
+	inBlocks(a.N, func(_, lo, hi int) {
+		for i := lo; i < hi; i++ {
+			s := b[i]
+			k0, k1 := a.RowPtr[i], a.RowPtr[i+1]
+			cs, vs := a.Col[k0:k1], a.Val[k0:k1]
+			vs = vs[:len(cs)]
+			for k, c := range cs {
+				s -= vs[k] * x[c]
+			}
+			l.res[i] = s
+		}
+	})
 	l.r.mulVec(l.coarse, l.res)
 	next := m.levels[k+1]
 	xc := next.x
@@ -439,45 +579,124 @@ func (m *AMG) cycle(k int, x, b []float64) {
 	}
 	m.cycle(k+1, xc, l.coarse)
 	l.p.mulVecAdd(x, xc)
-	l.gaussSeidel(x, b, false)
+	l.smooth(x, b, false, false)
 }
 
-func (l *amgLevel) gaussSeidel(x, b []float64, forward bool) {
+// smooth runs one Gauss–Seidel sweep, forward or backward; on long
+// vectors, the hybrid sweep of fixed blocks in parallel (see AMG). zero
+// says that x is zero on entry.
+func (l *amgLevel) smooth(x, b []float64, forward, zero bool) {
+	n := l.a.N
+	if n < parallelRows {
+		l.gaussSeidel(x, b, forward, 0, n, nil)
+		return
+	}
+	var snap []float64
+	if !zero {
+		if len(l.snap) != n {
+			l.snap = make([]float64, n)
+			l.halo = l.findHalo()
+		}
+		snap = l.snap
+		for _, c := range l.halo {
+			snap[c] = x[c]
+		}
+	}
+	inBlocks(n, func(_, lo, hi int) { l.gaussSeidel(x, b, forward, lo, hi, snap) })
+}
+
+// findHalo returns the columns that some row of another block reads, the
+// only values of x a hybrid sweep needs from before it.
+func (l *amgLevel) findHalo() []int32 {
 	a := l.a
-	n := a.N
-	i, step, end := 0, 1, n
+	seen := make([]bool, a.N)
+	var halo []int32
+	for b := 0; b < blocks; b++ {
+		lo, hi := split(a.N, b)
+		for i := lo; i < hi; i++ {
+			for _, c := range a.Col[a.RowPtr[i]:a.RowPtr[i+1]] {
+				if (c < lo || c >= hi) && !seen[c] {
+					seen[c] = true
+					halo = append(halo, int32(c))
+				}
+			}
+		}
+	}
+	return halo
+}
+
+// gaussSeidel sweeps rows lo ≤ i < hi. With a snapshot, the columns
+// outside [lo, hi) are read from it (nil: they are zero); when the block
+// is the whole matrix, from x.
+func (l *amgLevel) gaussSeidel(x, b []float64, forward bool, lo, hi int, snap []float64) {
+	a := l.a
+	i, step, end := lo, 1, hi
 	if !forward {
-		i, step, end = n-1, -1, -1
+		i, step, end = hi-1, -1, lo-1
 	}
 	for ; i != end; i += step {
 		s := b[i]
-		lo, hi := a.RowPtr[i], a.RowPtr[i+1]
-		cols := a.Col[lo:hi]
-		vals := a.Val[lo:hi]
+		k0, k1 := a.RowPtr[i], a.RowPtr[i+1]
+		cols := a.Col[k0:k1]
+		vals := a.Val[k0:k1]
 		vals = vals[:len(cols)]
-		for k, c := range cols {
-			s -= vals[k] * x[c]
+		if len(cols) > 0 && (cols[0] < lo || cols[len(cols)-1] >= hi) {
+			// A row on the edge of its block.
+			for k, c := range cols {
+				if c >= lo && c < hi {
+					s -= vals[k] * x[c]
+				} else if snap != nil {
+					s -= vals[k] * snap[c]
+				}
+			}
+		} else {
+			for k, c := range cols {
+				s -= vals[k] * x[c]
+			}
 		}
-		x[i] += s / a.Val[l.diag[i]]
+		x[i] += s * l.inv[i]
 	}
 }
 
 func (c csr) mulVec(dst, x []float64) {
-	for i := 0; i < c.rows; i++ {
-		s := 0.0
-		for k := c.ptr[i]; k < c.ptr[i+1]; k++ {
-			s += c.val[k] * x[c.col[k]]
-		}
-		dst[i] = s
-	}
+	inBlocks(c.rows, func(_, lo, hi int) { mulRows(c.ptr, c.col, c.val, dst, x, lo, hi) })
 }
 
 func (c csr) mulVecAdd(dst, x []float64) {
-	for i := 0; i < c.rows; i++ {
-		s := 0.0
-		for k := c.ptr[i]; k < c.ptr[i+1]; k++ {
-			s += c.val[k] * x[c.col[k]]
+	inBlocks(c.rows, func(_, lo, hi int) {
+		for i := lo; i < hi; i++ {
+			s := 0.0
+			k0, k1 := c.ptr[i], c.ptr[i+1]
+			cs, vs := c.col[k0:k1], c.val[k0:k1]
+			vs = vs[:len(cs)]
+			for k, col := range cs {
+				s += vs[k] * x[col]
+			}
+			dst[i] += s
 		}
-		dst[i] += s
+	})
+}
+
+// blockSweep is gaussSeidel on the block [lo, hi) of a hybrid sweep.
+func (l *amgLevel) blockSweep(x, b []float64, forward bool, lo, hi int, snap []float64) {
+	a := l.a
+	i, step, end := lo, 1, hi
+	if !forward {
+		i, step, end = hi-1, -1, lo-1
+	}
+	for ; i != end; i += step {
+		s := b[i]
+		k0, k1 := a.RowPtr[i], a.RowPtr[i+1]
+		cols := a.Col[k0:k1]
+		vals := a.Val[k0:k1]
+		vals = vals[:len(cols)]
+		for k, c := range cols {
+			if c >= lo && c < hi {
+				s -= vals[k] * x[c]
+			} else if snap != nil {
+				s -= vals[k] * snap[c]
+			}
+		}
+		x[i] += s / a.Val[l.diag[i]]
 	}
 }

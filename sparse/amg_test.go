@@ -101,3 +101,74 @@ func TestAMGSingular(t *testing.T) {
 		t.Errorf("error %v, want ErrSingular", err)
 	}
 }
+
+// A lagging hierarchy: after new values (the diagonal made several times
+// stronger, as radiation does when a board heats up) CG still solves the
+// new matrix to its tolerance with the old coarse levels, or with new
+// ones when it judged the old too slow; Renew forces a new hierarchy.
+func TestAMGLag(t *testing.T) {
+	rng := rand.New(rand.NewPCG(45, 46))
+	a := grid2D(30, 30, rng)
+	amg := &AMG{ReuseAggregates: true, Lag: true, MaxCoarse: 40}
+	s := &CG{iterBase{Precond: amg}}
+	b := randVec(a.N, rng)
+	x := make([]float64, a.N)
+	for step, grow := range []float64{0, 1e-3, 0.1, 3} {
+		for i := 0; i < a.N; i++ {
+			a.Add(i, i, -grow*float64(i%7))
+		}
+		if err := s.Factorize(a); err != nil {
+			t.Fatal(err)
+		}
+		if fresh := amg.Fresh(); fresh != (step == 0) && step < 2 {
+			t.Errorf("step %d: fresh %v", step, fresh)
+		}
+		if err := s.Solve(x, b); err != nil {
+			t.Fatalf("step %d: %v", step, err)
+		}
+		if got := relResidual(a, x, b); got > DefaultTol {
+			t.Errorf("step %d: residual %.3g", step, got)
+		}
+		if e := relErr(x, denseSolve(t, a, b, false)); e > 1e-6 {
+			t.Errorf("step %d: error %.3g against gonum dense LU", step, e)
+		}
+	}
+	amg.Renew()
+	if err := s.Factorize(a); err != nil || !amg.Fresh() {
+		t.Fatalf("after Renew: %v, fresh %v", err, amg.Fresh())
+	}
+}
+
+// On vectors long enough to be split into blocks worked on in parallel,
+// a solve gives the same bits every time.
+func TestParallelDeterministic(t *testing.T) {
+	rng := rand.New(rand.NewPCG(47, 48))
+	a := grid2D(140, 140, rng)
+	if a.N < parallelRows {
+		t.Fatalf("%d rows: too few to split", a.N)
+	}
+	b := randVec(a.N, rng)
+	var first []float64
+	for run := 0; run < 3; run++ {
+		s := &CG{iterBase{Precond: &AMG{}}}
+		if err := s.Factorize(a); err != nil {
+			t.Fatal(err)
+		}
+		x := make([]float64, a.N)
+		if err := s.Solve(x, b); err != nil {
+			t.Fatal(err)
+		}
+		if got := relResidual(a, x, b); got > DefaultTol {
+			t.Fatalf("residual %.3g", got)
+		}
+		if first == nil {
+			first = x
+			continue
+		}
+		for i := range x {
+			if x[i] != first[i] {
+				t.Fatalf("run %d differs at %d: %v against %v", run, i, x[i], first[i])
+			}
+		}
+	}
+}

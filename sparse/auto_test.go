@@ -2,6 +2,7 @@ package sparse
 
 import (
 	"fmt"
+	"math"
 	"math/rand/v2"
 	"testing"
 )
@@ -98,6 +99,18 @@ func TestAutoRule(t *testing.T) {
 		if s.direct != c.direct {
 			t.Errorf("%s: direct %v (factor %.3g, iterative %.3g), want %v", c.name, s.direct, d, w, c.direct)
 		}
+	}
+	// Above the order limit it iterates without ordering.
+	a := grid2D(30, 30, rng)
+	s := &AutoSolver{OrderLimit: 500}
+	if err := s.Analyse(a); err != nil {
+		t.Fatal(err)
+	}
+	if d, _ := s.Work(); s.direct || !math.IsNaN(d) {
+		t.Errorf("900 unknowns above a limit of 500: direct %v, factor work %v", s.direct, d)
+	}
+	if err := s.Factorize(a); err != nil || s.Kind() != "cg" {
+		t.Errorf("above the limit: %v, chose %q", err, s.Kind())
 	}
 }
 

@@ -1,6 +1,7 @@
 package sparse
 
 import (
+	"errors"
 	"fmt"
 	"math"
 )
@@ -29,6 +30,9 @@ type iterBase struct {
 	iters  int
 	relres float64
 	w      [][]float64
+	// freshRate is the natural logarithm of the residual's reduction per
+	// iteration in the first solve after a full preconditioner set-up.
+	freshRate float64
 }
 
 func (s *iterBase) SetTolerance(rel float64) { s.Tol = rel }
@@ -129,6 +133,14 @@ func (s *CG) Factorize(a *Matrix) error { return s.factorize(a, -1) }
 // Solve iterates from zero (or from x with WarmStart) until
 // ‖b − A·x‖₂ ≤ Tol·‖b‖₂; failing that within MaxIter iterations, it
 // returns an error wrapping ErrNotConverged, with x the last iterate.
+//
+// With a lagging multigrid preconditioner (AMG.Lag), Solve judges the
+// hierarchy by its rate: when a solve with the kept coarse levels
+// reduces the residual much more slowly per iteration than the first
+// solve after the last full set-up, it asks for a new hierarchy at the
+// next Factorize; when the kept levels would take far more iterations
+// than that rate predicts, it builds the new hierarchy at once and goes on
+// from where it is.
 func (s *CG) Solve(x, b []float64) error {
 	if !s.ok {
 		return fmt.Errorf("%w: no successful factorisation", ErrPattern)
@@ -137,67 +149,136 @@ func (s *CG) Solve(x, b []float64) error {
 		return err
 	}
 	tol, maxIter := s.limits()
+	l, lagging := s.Precond.(lagger)
+	limit := maxIter
+	if lagging && !l.Fresh() && s.freshRate < 0 {
+		// The iterations a fresh hierarchy would take from a cold start,
+		// three times over.
+		limit = min(maxIter, 10+int(3*math.Log(tol)/s.freshRate))
+	}
+	start, err := s.cg(x, b, tol, limit)
+	iters := s.iters
+	if lagging && errors.Is(err, ErrNotConverged) && !l.Fresh() && limit < maxIter {
+		l.Renew()
+		if err = s.Precond.Setup(&s.a, -1); err != nil {
+			return err
+		}
+		warm := s.WarmStart
+		s.WarmStart = true
+		start, err = s.cg(x, b, tol, maxIter-iters)
+		s.WarmStart = warm
+		s.iters += iters
+	}
+	if lagging && err == nil {
+		s.judge(l, start)
+	}
+	return err
+}
+
+// lagger is a preconditioner that may keep part of an older set-up.
+type lagger interface {
+	Fresh() bool
+	Renew()
+}
+
+// judge records the rate of a solve with a fresh preconditioner, or asks
+// for a new one when a lagging one has become much slower; start is the
+// relative residual the solve began from.
+func (s *iterBase) judge(l lagger, start float64) {
+	if s.iters < 2 || !(s.relres > 0) || !(start > s.relres) {
+		return
+	}
+	rate := math.Log(s.relres/start) / float64(s.iters)
+	if l.Fresh() {
+		s.freshRate = rate
+		return
+	}
+	if s.freshRate < 0 && rate > 0.6*s.freshRate {
+		l.Renew()
+	}
+}
+
+// cg is the CG iteration on −A·x = −b, at most maxIter steps. It returns
+// the relative residual it started from.
+func (s *CG) cg(x, b []float64, tol float64, maxIter int) (float64, error) {
+	n := s.a.N
+	a := &s.a
 	w := s.vectors(4)
 	r, z, p, q := w[0], w[1], w[2], w[3]
 	bn, rn := s.start(x, b, r)
 	s.iters, s.relres = 0, 0
 	if bn == 0 {
 		clear(x)
-		return nil
+		return 0, nil
 	}
 	s.relres = rn / bn
+	start := s.relres
 	if s.relres <= tol {
-		return nil
+		return start, nil
 	}
 	// Work on M = −A, c = −b: the residual c − M·x is −r.
-	for i := range r {
-		r[i] = -r[i]
-	}
+	inBlocks(n, func(_, lo, hi int) {
+		for i := lo; i < hi; i++ {
+			r[i] = -r[i]
+		}
+	})
 	s.Precond.Apply(z, r)
 	copy(p, z)
-	rz := dot(r, z)
+	rz := pdot(r, z)
 	for it := 1; it <= maxIter; it++ {
-		s.a.MulVec(q, p)
-		for i := range q {
-			q[i] = -q[i]
-		}
-		pq := dot(p, q)
+		// q = M·p and p·q in one pass.
+		pq := sumBlocks(n, func(lo, hi int) float64 {
+			mulRows(a.RowPtr, a.Col, a.Val, q, p, lo, hi)
+			t := 0.0
+			for i := lo; i < hi; i++ {
+				q[i] = -q[i]
+				t += p[i] * q[i]
+			}
+			return t
+		})
 		if !(pq > 0) {
 			s.iters = it
-			return fmt.Errorf("%w: −A is not positive definite along a search direction (iteration %d)", ErrNotDefinite, it)
+			return start, fmt.Errorf("%w: −A is not positive definite along a search direction (iteration %d)", ErrNotDefinite, it)
 		}
 		alpha := rz / pq
-		for i := range x {
-			x[i] += alpha * p[i]
-			r[i] -= alpha * q[i]
-		}
+		rr := sumBlocks(n, func(lo, hi int) float64 {
+			t := 0.0
+			for i := lo; i < hi; i++ {
+				x[i] += alpha * p[i]
+				r[i] -= alpha * q[i]
+				t += r[i] * r[i]
+			}
+			return t
+		})
 		s.iters = it
-		s.relres = norm2(r) / bn
+		s.relres = math.Sqrt(rr) / bn
 		if s.relres <= tol {
 			// Confirm with the true residual; restart from it if the
 			// recurrence has drifted.
-			s.a.MulVec(r, x)
+			a.MulVec(r, x)
 			for i := range r {
 				r[i] -= b[i] // c − M·x = −b + A·x
 			}
 			s.relres = norm2(r) / bn
 			if s.relres <= tol {
-				return nil
+				return start, nil
 			}
 			s.Precond.Apply(z, r)
 			copy(p, z)
-			rz = dot(r, z)
+			rz = pdot(r, z)
 			continue
 		}
 		s.Precond.Apply(z, r)
-		rzNew := dot(r, z)
+		rzNew := pdot(r, z)
 		beta := rzNew / rz
 		rz = rzNew
-		for i := range p {
-			p[i] = z[i] + beta*p[i]
-		}
+		inBlocks(n, func(_, lo, hi int) {
+			for i := lo; i < hi; i++ {
+				p[i] = z[i] + beta*p[i]
+			}
+		})
 	}
-	return s.fail("CG", s.iters, "stopped at the iteration limit")
+	return start, s.fail("CG", s.iters, "stopped at the iteration limit")
 }
 
 // BiCGStab is the stabilised biconjugate gradient method (van der Vorst,

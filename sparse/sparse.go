@@ -134,15 +134,10 @@ func (m *Matrix) At(i, j int) float64 {
 	return 0
 }
 
-// MulVec sets dst = m·x.
+// MulVec sets dst = m·x, splitting long matrices into blocks of rows
+// done in parallel (each row's sum is the same either way).
 func (m *Matrix) MulVec(dst, x []float64) {
-	for i := 0; i < m.N; i++ {
-		s := 0.0
-		for k := m.RowPtr[i]; k < m.RowPtr[i+1]; k++ {
-			s += m.Val[k] * x[m.Col[k]]
-		}
-		dst[i] = s
-	}
+	inBlocks(m.N, func(_, lo, hi int) { mulRows(m.RowPtr, m.Col, m.Val, dst, x, lo, hi) })
 }
 
 // Clone returns a deep copy of m.
