@@ -1,0 +1,66 @@
+package benchcmd_test
+
+import (
+	"os"
+	"regexp"
+	"strconv"
+	"strings"
+	"testing"
+
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/benchcmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/root"
+	"github.com/heatgraph/heatgraph/network"
+	"github.com/stretchr/testify/assert"
+	"github.com/stretchr/testify/require"
+)
+
+// The test binary doubles as heatgraph: started with
+// HEATGRAPH_BENCH_AS_MAIN=1 it runs the command line with its own
+// arguments, so that the bench can solve its models in processes of their
+// own without building heatgraph first.
+func TestMain(m *testing.M) {
+	if os.Getenv("HEATGRAPH_BENCH_AS_MAIN") == "1" {
+		os.Exit(root.Main(os.Args[1:], iostreams.System()))
+	}
+	os.Exit(m.Run())
+}
+
+// The whole bench on the smallest board and block: every model is solved
+// by a heatgraph process, converges, and closes its energy balance; the
+// table has a row for each with every column filled in but the targets.
+func TestBenchSolvesSmallModels(t *testing.T) {
+	c, err := benchcmd.NewCase("block", 1e3, "1e3")
+	require.NoError(t, err)
+	if _, err := network.Parse("probe.yaml", c.Model()); err != nil && strings.Contains(err.Error(), "plates: unknown key") {
+		t.Skip("this build does not read plates: yet")
+	}
+	t.Setenv("HEATGRAPH_BENCH_AS_MAIN", "1")
+	ios, _, out, errOut := iostreams.Test()
+	err = benchcmd.Run(&benchcmd.Options{IO: ios, Sizes: []string{"1e3", "2e2"}, Shapes: benchcmd.Shapes, Repeat: 2, Binary: os.Args[0]})
+	require.NoError(t, err, "%s\n%s", out, errOut)
+	lines := strings.Split(out.String(), "\n")
+	assert.Equal(t, benchcmd.Columns, regexp.MustCompile(`\s{2,}`).Split(strings.TrimSpace(lines[0]), -1))
+	want := map[string]int{"board 1e3": 992, "board 2e2": 196, "block 1e3": 1000, "block 2e2": 0}
+	for i, name := range []string{"board 1e3", "board 2e2", "block 1e3", "block 2e2"} {
+		f := strings.Fields(lines[1+i])
+		require.Len(t, f, 9, lines[1+i]) // no target: "-" and "-"
+		assert.Equal(t, strings.Fields(name)[0], f[0])
+		cells, err := strconv.Atoi(f[1])
+		require.NoError(t, err)
+		if want[name] > 0 {
+			assert.Equal(t, want[name], cells, name)
+		}
+		unknowns, err := strconv.Atoi(f[2])
+		require.NoError(t, err)
+		assert.Greater(t, unknowns, cells, "%s: every cell and every junction is an unknown", name)
+		for _, v := range f[3:6] {
+			x, err := strconv.ParseFloat(v, 64)
+			require.NoError(t, err, lines[1+i])
+			assert.Positive(t, x, "%s: time, memory and Newton iterations", name)
+		}
+		assert.Equal(t, []string{"-", "-"}, f[7:], lines[1+i])
+	}
+	assert.NotContains(t, out.String(), "FAILED")
+	assert.Equal(t, 8, strings.Count(errOut.String(), "bench: "), "two runs of each of four cases\n%s", errOut)
+}
