@@ -33,6 +33,9 @@ type Options struct {
 	Binary   string        // the heatgraph that solves; "" for this one
 	Timeout  time.Duration // longest one solve may take; 0 for no limit
 	Strict   bool          // exit status 1 when a target is missed
+	// MaxMemoryMB stops a solve whose resident set passes it, MB (10⁶
+	// bytes); 0 for no bound. Linux only.
+	MaxMemoryMB float64
 }
 
 // DefaultSizes are the sizes the bench runs unless told otherwise.
@@ -81,7 +84,7 @@ measures on two threads.
 Exit status: 0 when every case converged (targets are reported, not
 enforced, unless --strict), 1 with --strict when a target is missed,
 3 when a case failed: no solution, an energy balance that does not close,
-or no result within --timeout; 2 for an invalid command line, 4 when a
+or no result within --timeout or --max-memory; 2 for an invalid command line, 4 when a
 solve could not run or its report could not be read.`,
 		Example: `  heatgraph bench
   heatgraph bench --sizes 1e3,1e4 --shapes board --repeat 5
@@ -102,6 +105,7 @@ solve could not run or its report could not be read.`,
 	cmd.Flags().BoolVar(&o.Markdown, "markdown", false, "print the table in Markdown")
 	cmd.Flags().StringVar(&o.Binary, "binary", "", "solve with this heatgraph executable instead of the running one (to compare builds)")
 	cmd.Flags().DurationVar(&o.Timeout, "timeout", 10*time.Minute, "longest one solve may take before its case fails (0 for no limit)")
+	cmd.Flags().Float64Var(&o.MaxMemoryMB, "max-memory", 6000, "stop a solve whose resident memory passes this many MB, and fail its case (0 for no bound; Linux only)")
 	cmd.Flags().BoolVar(&o.Strict, "strict", false, "exit with status 1 when a case misses its target")
 	return cmd
 }
@@ -186,6 +190,9 @@ func (o *Options) cases() ([]Case, error) {
 	if o.Timeout < 0 {
 		return nil, exit.With(exit.BadInput, "--timeout %s: give a positive duration, or 0 for no limit", o.Timeout)
 	}
+	if !(o.MaxMemoryMB >= 0) {
+		return nil, exit.With(exit.BadInput, "--max-memory %g: give a positive number of MB, or 0 for no bound", o.MaxMemoryMB)
+	}
 	if len(o.Sizes) == 0 || len(o.Shapes) == 0 {
 		return nil, exit.With(exit.BadInput, "give at least one size (--sizes) and one shape (--shapes)")
 	}
@@ -224,7 +231,7 @@ func (o *Options) cases() ([]Case, error) {
 func (o *Options) measure(c Case, exe, model, result string) *Measure {
 	m := &Measure{Case: c, PeakBytes: -1, Linear: -1}
 	for i := 0; i < o.Repeat; i++ {
-		r, err := solveOnce(context.Background(), exe, model, result, o.Timeout)
+		r, err := solveOnce(context.Background(), exe, model, result, limits{timeout: o.Timeout, memory: int64(o.MaxMemoryMB * 1e6)})
 		m.Times = append(m.Times, r.wall)
 		m.PeakBytes = max(m.PeakBytes, r.peakBytes)
 		if r.result != nil {

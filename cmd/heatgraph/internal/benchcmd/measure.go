@@ -11,6 +11,7 @@ import (
 	"os/exec"
 	"slices"
 	"strings"
+	"sync/atomic"
 	"time"
 
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
@@ -57,6 +58,13 @@ func (m *Measure) Median() time.Duration {
 	return (t[n/2-1] + t[n/2]) / 2
 }
 
+// limits bound one solve: its wall time and its resident memory (0 for
+// no bound).
+type limits struct {
+	timeout time.Duration
+	memory  int64 // bytes
+}
+
 // run is one solve of a model by a child process.
 type run struct {
 	wall      time.Duration
@@ -68,10 +76,10 @@ type run struct {
 // time and peak memory. A solve that ends with exit status 0 or 1 (a limit
 // exceeded is still a solution) has its report read; exit status 3 (no
 // solution) too, so that the reason can be told.
-func solveOnce(ctx context.Context, exe, model, out string, timeout time.Duration) (run, error) {
-	if timeout > 0 {
+func solveOnce(ctx context.Context, exe, model, out string, lim limits) (run, error) {
+	if lim.timeout > 0 {
 		var cancel context.CancelFunc
-		ctx, cancel = context.WithTimeout(ctx, timeout)
+		ctx, cancel = context.WithTimeout(ctx, lim.timeout)
 		defer cancel()
 	}
 	_ = os.Remove(out) // a report left by an earlier run must not be read
@@ -79,13 +87,28 @@ func solveOnce(ctx context.Context, exe, model, out string, timeout time.Duratio
 	var stderr bytes.Buffer
 	cmd.Stderr = &limited{w: &stderr, n: 8 << 10}
 	start := time.Now()
-	err := cmd.Run()
+	err := cmd.Start()
+	var overMemory atomic.Bool
+	if err == nil {
+		done := make(chan struct{})
+		if lim.memory > 0 {
+			go watchMemory(cmd.Process.Pid, lim.memory, 20*time.Millisecond, done, func() {
+				overMemory.Store(true)
+				_ = cmd.Process.Kill()
+			})
+		}
+		err = cmd.Wait()
+		close(done)
+	}
 	r := run{wall: time.Since(start), peakBytes: -1}
 	if cmd.ProcessState != nil {
 		r.peakBytes = peakRSS(cmd.ProcessState)
 	}
-	if ctx.Err() == context.DeadlineExceeded {
-		return r, &exit.Error{Code: exit.NotConverged, Err: fmt.Errorf("no result within %s (--timeout)", timeout)}
+	switch {
+	case overMemory.Load():
+		return r, &exit.Error{Code: exit.NotConverged, Err: fmt.Errorf("stopped: it held more than %.0f MB (--max-memory)", float64(lim.memory)/1e6)}
+	case ctx.Err() == context.DeadlineExceeded:
+		return r, &exit.Error{Code: exit.NotConverged, Err: fmt.Errorf("no result within %s (--timeout)", lim.timeout)}
 	}
 	code := 0
 	var ee *exec.ExitError

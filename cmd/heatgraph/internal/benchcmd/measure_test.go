@@ -227,10 +227,10 @@ func TestFlagsToOptions(t *testing.T) {
 	ios, _, _, _ := iostreams.Test()
 	var got *Options
 	cmd := NewCmd(ios, func(o *Options) error { got = o; return nil })
-	cmd.SetArgs([]string{"--sizes", "1e3,2e4", "--shapes", "block", "--repeat", "3", "--keep", "k", "--markdown", "--binary", "hg", "--timeout", "90s", "--strict"})
+	cmd.SetArgs([]string{"--sizes", "1e3,2e4", "--shapes", "block", "--repeat", "3", "--keep", "k", "--markdown", "--binary", "hg", "--timeout", "90s", "--strict", "--max-memory", "2500"})
 	require.NoError(t, cmd.Execute())
 	assert.Equal(t, &Options{IO: ios, Sizes: []string{"1e3", "2e4"}, Shapes: []string{"block"}, Repeat: 3, Keep: "k", Markdown: true,
-		Binary: "hg", Timeout: 90 * time.Second, Strict: true}, got)
+		Binary: "hg", Timeout: 90 * time.Second, Strict: true, MaxMemoryMB: 2500}, got)
 
 	cmd = NewCmd(ios, func(o *Options) error { got = o; return nil })
 	cmd.SetArgs(nil)
@@ -239,6 +239,7 @@ func TestFlagsToOptions(t *testing.T) {
 	assert.Equal(t, []string{"board", "block"}, got.Shapes)
 	assert.Equal(t, 1, got.Repeat)
 	assert.Equal(t, 10*time.Minute, got.Timeout)
+	assert.Equal(t, 6000.0, got.MaxMemoryMB)
 }
 
 func TestInvalidOptions(t *testing.T) {
@@ -253,6 +254,7 @@ func TestInvalidOptions(t *testing.T) {
 		{Options{Sizes: []string{"1e3"}, Shapes: Shapes, Repeat: 0}, "--repeat 0"},
 		{Options{Sizes: []string{"1e3"}, Shapes: Shapes, Repeat: 1, Timeout: -time.Second}, "--timeout"},
 		{Options{Shapes: Shapes, Repeat: 1}, "at least one size"},
+		{Options{Sizes: []string{"1e3"}, Shapes: Shapes, Repeat: 1, MaxMemoryMB: -1}, "--max-memory"},
 	} {
 		ios, _, _, _ := iostreams.Test()
 		c.o.IO = ios

@@ -6,8 +6,10 @@ import (
 	"strconv"
 	"strings"
 	"testing"
+	"time"
 
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/benchcmd"
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/root"
 	"github.com/heatgraph/heatgraph/network"
@@ -20,6 +22,18 @@ import (
 // arguments, so that the bench can solve its models in processes of their
 // own without building heatgraph first.
 func TestMain(m *testing.M) {
+	if os.Getenv("HEATGRAPH_BENCH_HOG") == "1" {
+		// Stand in for a solve that keeps taking memory.
+		var held [][]byte
+		for {
+			b := make([]byte, 16<<20)
+			for i := range b {
+				b[i] = 1
+			}
+			held = append(held, b)
+			time.Sleep(10 * time.Millisecond)
+		}
+	}
 	if os.Getenv("HEATGRAPH_BENCH_AS_MAIN") == "1" {
 		os.Exit(root.Main(os.Args[1:], iostreams.System()))
 	}
@@ -63,4 +77,22 @@ func TestBenchSolvesSmallModels(t *testing.T) {
 	}
 	assert.NotContains(t, out.String(), "FAILED")
 	assert.Equal(t, 8, strings.Count(errOut.String(), "bench: "), "two runs of each of four cases\n%s", errOut)
+}
+
+// A solve that keeps taking memory is stopped at --max-memory, and its
+// case fails with exit status 3.
+func TestMaxMemoryStopsASolve(t *testing.T) {
+	if !benchcmd.CanWatchMemory {
+		t.Skip("this system's solves are not watched")
+	}
+	t.Setenv("HEATGRAPH_BENCH_HOG", "1")
+	ios, _, out, errOut := iostreams.Test()
+	err := benchcmd.Run(&benchcmd.Options{IO: ios, Sizes: []string{"1e3"}, Shapes: []string{"board"}, Repeat: 1, Binary: os.Args[0], MaxMemoryMB: 150})
+	assert.Equal(t, exit.Silent(exit.NotConverged), err, "%s\n%s", out, errOut)
+	assert.Contains(t, out.String(), "FAILED board-1e3 (992 cells): stopped: it held more than 150 MB (--max-memory)")
+	f := strings.Fields(strings.Split(out.String(), "\n")[1])
+	require.Len(t, f, 9)
+	peak, err := strconv.ParseFloat(f[4], 64)
+	require.NoError(t, err)
+	assert.Greater(t, peak, 150.0, "the peak is measured up to the stop")
 }
