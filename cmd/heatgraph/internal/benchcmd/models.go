@@ -86,13 +86,15 @@ func roundAtLeastOne(x float64) int {
 // layers, cooled on both faces by natural convection and radiation to the
 // ambient; a processor with a small heat sink on its case, a power
 // controller, two memories and a network transceiver (on the bottom face)
-// sit on it, and a power stage heats a region of its top face.
+// sit on it, and a power stage heats a region of its top face: 13.7 W in
+// all. It has no thermal vias, so the heat of a small part crosses the
+// laminate under its footprint before it spreads.
 //
 // The block is a 100 × 100 × 20 mm aluminium heat-spreading base: a
 // draught under its bottom face, natural convection on the others, and
 // radiation from all six faces (anodised); two power modules heat regions
 // of its top face, a gate driver sits on it, and a shunt heats a region of
-// one of its side faces.
+// one of its side faces: 20.5 W in all.
 //
 // Every number is invented for the bench; together they keep every part
 // within its limit, so that a solve ends with exit status 0.
@@ -132,7 +134,7 @@ plates:
       - {face: top, region: [10 mm, 10 mm, 45 mm, 50 mm], power: 3 W, note: power stage}
 components:
   - {id: cpu, power: 6 W, r_jc: 0.3 K/W, case: cpu-heatsink, r_jb: 4 K/W, board: board, at: [100 mm, 100 mm], footprint: [17 mm, 17 mm], limit: 100 degC}
-  - {id: pmic, power: 2.5 W, r_jb: 8 K/W, board: board, at: [40 mm, 150 mm], footprint: [8 mm, 8 mm], limit: 125 degC}
+  - {id: pmic, power: 1.5 W, r_jb: 8 K/W, board: board, at: [40 mm, 150 mm], footprint: [10 mm, 10 mm], limit: 125 degC}
   - {id: dram-a, power: 1.2 W, r_jb: 6 K/W, board: board, at: [140 mm, 100 mm], footprint: [14 mm, 10 mm], limit: 95 degC}
   - {id: dram-b, power: 1.2 W, r_jb: 6 K/W, board: board, at: [160 mm, 100 mm], footprint: [14 mm, 10 mm], limit: 95 degC}
   - {id: phy, power: 0.8 W, r_jb: 10 K/W, board: board, side: bottom, at: [60 mm, 40 mm], footprint: [10 mm, 10 mm], limit: 110 degC}
