@@ -64,6 +64,7 @@ type Network struct {
 	sources []elements.Element // the heat inputs of nodes and components
 	stores  []elements.Element // the heat capacities of nodes
 	pvar    map[int]int        // node -> its pressure variable, for nodes in a solved air path
+	plates  []*builtPlate      // meshed plates, in file order
 	free    []int              // variable -> unknown index, -1 for given variables
 	unknown []int              // unknown index -> variable
 	asm     *assembly
@@ -101,7 +102,9 @@ func Build(m *Model) (*Network, error) {
 		i := len(net.Nodes)
 		net.Nodes = append(net.Nodes, n)
 		net.Index[n.ID] = i
-		v := Variable{Kind: TemperatureVar, Owner: n.ID, Given: n.Fixed(), Value: m.Ambient.Temperature}
+		// A plate's node is given: its value is its hottest cell's,
+		// set at each solution, and no balance is paired with it.
+		v := Variable{Kind: TemperatureVar, Owner: n.ID, Given: n.Fixed() || n.Kind == Plate, Value: m.Ambient.Temperature}
 		if n.Fixed() {
 			v.Value = n.Temperature
 		}
@@ -128,6 +131,7 @@ func Build(m *Model) (*Network, error) {
 		add(Node{ID: s.ID, Kind: s.Kind, Temperature: s.Temperature, Power: s.Power, Capacity: s.Capacity, Limit: s.Limit, HasLimit: s.HasLimit, Height: s.Height, Pressure: s.Pressure, Note: s.Note, Line: s.Line,
 			PowerProfile: s.PowerProfile, TemperatureProfile: s.TemperatureProfile})
 	}
+	net.addPlateNodes(m, add)
 	for _, c := range m.Components {
 		j := add(Node{ID: c.ID, Kind: Junction, Power: c.Power, Capacity: c.Capacity, Limit: c.Limit, HasLimit: c.HasLimit, Note: c.Note, Line: c.Line, PowerProfile: c.PowerProfile})
 		legs := []struct {
@@ -135,8 +139,8 @@ func Build(m *Model) (*Network, error) {
 			r                 float64
 		}{{"junction-case", c.Case, ".jc", c.RJC}, {"junction-board", c.Board, ".jb", c.RJB}}
 		for _, leg := range legs {
-			if leg.end == "" {
-				continue
+			if leg.end == "" || (leg.kind == "junction-board" && c.Placed) {
+				continue // a part placed on a plate joins it through the plate's element
 			}
 			el, err := elements.Resistance(j, net.Index[leg.end], leg.r)
 			if err != nil {
@@ -146,6 +150,7 @@ func Build(m *Model) (*Network, error) {
 			net.Links = append(net.Links, Link{ID: c.ID + leg.suffix, Kind: leg.kind, From: j, To: net.Index[leg.end], Line: c.Line, Element: el})
 		}
 	}
+	problems = append(problems, net.buildPlates(m)...)
 	net.assignPressures()
 	for _, l := range m.Links {
 		a, b := net.Index[l.From], net.Index[l.To]
@@ -201,6 +206,9 @@ func (m *Model) isolated() Problems {
 	for _, c := range m.Components {
 		nodes = append(nodes, entry{c.ID, c.Line, false})
 	}
+	for _, p := range m.Plates {
+		nodes = append(nodes, entry{p.ID, p.Line, false})
+	}
 	index := make(map[string]int, len(nodes))
 	parent := make([]int, len(nodes))
 	for i, n := range nodes {
@@ -227,6 +235,11 @@ func (m *Model) isolated() Problems {
 		}
 		if c.Board != "" {
 			join(c.ID, c.Board)
+		}
+	}
+	for _, p := range m.Plates {
+		for _, f := range p.Faces {
+			join(p.ID, f.To)
 		}
 	}
 	for _, l := range m.Links {

@@ -12,6 +12,7 @@ type Model struct {
 	Components     []ComponentSpec
 	Links          []LinkSpec
 	Enclosures     []EnclosureSpec
+	Plates         []PlateSpec
 }
 
 // Ambient describes the air around the box.
@@ -42,6 +43,9 @@ const (
 	Fixed NodeKind = "fixed"
 	// Junction: the junction node of a component's compact model.
 	Junction NodeKind = "junction"
+	// Plate: a meshed plate, shown as one node whose temperature is its
+	// hottest cell's; its cells are variables of their own.
+	Plate NodeKind = "plate"
 	// Air: air at one place, the well-mixed air of a compartment or the
 	// bulk temperature of a stream at one station along its path.
 	Air NodeKind = "air"
@@ -77,7 +81,14 @@ type ComponentSpec struct {
 	RJC      float64 // junction to case, K/W (when Case is set)
 	RJB      float64 // junction to board, K/W (when Board is set)
 	Case     string  // node at the case top; "" for an adiabatic top
-	Board    string  // board node under the part; "" for none
+	Board    string  // board node (or plate) under the part; "" for none
+	// At and Footprint place the part on a plate (when Board names one):
+	// the centre of its footprint, m, in the plate's plane, and the
+	// footprint's size along x and y, m. Side is the plate's face it sits
+	// on, "top" or "bottom".
+	At, Footprint [2]float64
+	Placed        bool // At and Footprint are given
+	Side          string
 	Limit    float64 // highest allowed junction temperature, K (when HasLimit)
 	HasLimit bool
 	Note     string

@@ -15,7 +15,7 @@ import (
 // FormatVersion is the model format version this build reads.
 const FormatVersion = 1
 
-var topKeys = []string{"heatgraph", "title", "ambient", "required_margin", "materials", "nodes", "components", "links", "enclosures", "shared"}
+var topKeys = []string{"heatgraph", "title", "ambient", "required_margin", "materials", "nodes", "components", "links", "enclosures", "plates", "shared"}
 
 // Parse reads a model from data; file names it in messages.
 func Parse(file string, data []byte) (*Model, error) { return parseHooked(file, data, nil) }
@@ -75,13 +75,17 @@ func parseHooked(file string, data []byte, hook func(doc *yaml.Node)) (*Model, e
 	if n, ok := top.values["nodes"]; ok {
 		m.Nodes = r.readNodes(n, m, ids)
 	}
+	if n, ok := top.values["plates"]; ok {
+		m.Plates = r.readPlates(n, m, ids)
+	}
 	if n, ok := top.values["components"]; ok {
 		m.Components = r.readComponents(n, m, ids)
 	}
-	if len(m.Nodes) == 0 && len(m.Components) == 0 && len(r.problems) == before {
+	if len(m.Nodes) == 0 && len(m.Components) == 0 && len(m.Plates) == 0 && len(r.problems) == before {
 		r.addf(top.node, "nodes", "the model has no nodes (add a nodes: list with at least one solid node)")
 	}
 	r.resolveComponents(m, ids)
+	r.placeParts(m)
 	if n, ok := top.values["links"]; ok {
 		m.Links = r.readLinks(n, m, ids)
 	}
@@ -236,7 +240,7 @@ func (r *reader) readNodes(n *yaml.Node, m *Model, ids map[string]nodeRef) []Nod
 	return out
 }
 
-var componentKeys = []string{"id", "power", "r_jc", "r_jb", "case", "board", "limit", "note", "group"}
+var componentKeys = []string{"id", "power", "r_jc", "r_jb", "case", "board", "at", "footprint", "side", "limit", "note", "group"}
 
 func (r *reader) readComponents(n *yaml.Node, m *Model, ids map[string]nodeRef) []ComponentSpec {
 	var out []ComponentSpec
@@ -270,6 +274,20 @@ func (r *reader) readComponents(n *yaml.Node, m *Model, ids map[string]nodeRef) 
 		} else if o.has("r_jb") {
 			r.addf(o.values["r_jb"], o.field("r_jb"), "r_jb needs the board node it leads to (add board: <node id>)")
 		}
+		if o.has("at") || o.has("footprint") || o.has("side") {
+			at, okAt := o.lengths("at", 2, true)
+			fp, okFp := o.lengths("footprint", 2, true)
+			c.Side = "top"
+			if s, ok := o.choice("side", "side", []string{"top", "bottom"}); ok && s != "" {
+				c.Side = s
+			}
+			if okAt && okFp {
+				c.At, c.Footprint, c.Placed = [2]float64(at), [2]float64(fp), true
+			}
+			if c.Board == "" {
+				r.addf(o.node, o.path, "at: and footprint: place a part on a plate; add board: <plate id>")
+			}
+		}
 		if c.Case == "" && c.Board == "" && !o.has("r_jc") && !o.has("r_jb") {
 			r.addf(o.node, o.path, "needs case: with r_jc, board: with r_jb, or both (the JEDEC two-resistor model)")
 		}
@@ -295,7 +313,18 @@ func (r *reader) resolveComponents(m *Model, ids map[string]nodeRef) {
 			} else if end.id == c.ID {
 				r.problems = append(r.problems, Problem{File: r.file, Line: c.Line, Field: "components[" + c.ID + "]." + end.key,
 					Message: "a component cannot be its own case or board node"})
-			} else if k := ids[end.id].kind; k == Air {
+			} else if k := ids[end.id].kind; k == Plate && end.key == "case" {
+				r.broken = true
+				r.problems = append(r.problems, Problem{File: r.file, Line: c.Line, Field: "components[" + c.ID + "]." + end.key,
+					Message: fmt.Sprintf("%q is a plate; a component's case must be a node (give the case a node and join it to the plate's face under faces:)", end.id)})
+			} else if k == Plate && !c.Placed {
+				r.broken = true
+				r.problems = append(r.problems, Problem{File: r.file, Line: c.Line, Field: "components[" + c.ID + "].board",
+					Message: fmt.Sprintf("%q is a plate: place the part on it with at: [x, y] (the centre of its footprint) and footprint: [width, length]", end.id)})
+			} else if k != Plate && c.Placed && end.key == "board" {
+				r.problems = append(r.problems, Problem{File: r.file, Line: c.Line, Field: "components[" + c.ID + "].at",
+					Message: fmt.Sprintf("%q is a node, not a plate: at: and footprint: only place parts on plates", end.id)})
+			} else if k == Air {
 				r.broken = true
 				r.problems = append(r.problems, Problem{File: r.file, Line: c.Line, Field: "components[" + c.ID + "]." + end.key,
 					Message: fmt.Sprintf("%q is an air node; a component's %s must be a solid or fixed node (link the part to the air with a convection link instead)", end.id, end.key)})
@@ -428,6 +457,11 @@ func (r *reader) endpoint(o *object, key, def string, ids map[string]nodeRef, na
 	}
 	if _, known := ids[id]; !known {
 		r.addf(o.values[key], o.field(key), "unknown node %q%s", id, suggest(id, names))
+		r.broken = true
+		return ""
+	}
+	if ids[id].kind == Plate {
+		r.addf(o.values[key], o.field(key), "%q is a plate, which links do not join: join it to nodes through the plate's faces: list", id)
 		r.broken = true
 		return ""
 	}

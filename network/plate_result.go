@@ -8,7 +8,7 @@ type PlateResult struct {
 	Line int
 	// Grid: NX × NY cells in the plane (x along Width, y along Length),
 	// NZ cells through the thickness, k = 0 at the bottom face.
-	NX, NY, NZ              int
+	NX, NY, NZ               int
 	Width, Length, Thickness float64 // m
 	// ZEdges are the NZ+1 heights of the cell boundaries through the
 	// thickness, m, from 0 at the bottom face.
@@ -32,10 +32,10 @@ type PlateResult struct {
 // PlateJoinResult is the heat through one join of a plate's faces or edges
 // to a node.
 type PlateJoinResult struct {
-	Name string // e.g. "top to box-air (convection)"
-	Face string // top, bottom, x_min, x_max, y_min or y_max
-	Node string // the node joined
-	Kind string // convection, radiation, contact, footprint ...
+	Name string  // e.g. "top to box-air (convection)"
+	Face string  // top, bottom, x_min, x_max, y_min or y_max
+	Node string  // the node joined
+	Kind string  // convection, radiation, contact, footprint ...
 	Heat float64 // W, positive out of the plate into the node
 }
 

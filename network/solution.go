@@ -106,6 +106,7 @@ func (net *Network) Solution(x []float64) *Solution {
 		panic(fmt.Sprintf("network: solution state cannot be evaluated: %v", err))
 	}
 	p.ev.eval(&p.state, p.sum, p.mag, nil)
+	net.refreshViews(p.x)
 	sol := &Solution{Net: net, X: append([]float64(nil), p.x...)}
 	sol.T = sol.X[:len(net.Nodes)]
 	state := &elements.State{X: sol.X, Env: &net.Env}
@@ -132,7 +133,7 @@ func (net *Network) Solution(x []float64) *Solution {
 			sc = 0
 		}
 		if sol.Residual.Variable == "" || sc > sol.Residual.Scaled {
-			sol.Residual = Residual{Variable: v.Name(), Value: p.sum[u], Unit: varKinds[v.Kind].EquationUnit, Scaled: sc}
+			sol.Residual = Residual{Variable: net.varName(u), Value: p.sum[u], Unit: varKinds[v.Kind].EquationUnit, Scaled: sc}
 		}
 	}
 	for _, l := range net.Links {
@@ -175,6 +176,7 @@ func (net *Network) Solution(x []float64) *Solution {
 	}
 	sol.Balance.Imbalance = sol.Balance.In + sol.Balance.Environment - out
 	sol.Branches, sol.Balance.Mass = net.airflowResults(state)
+	sol.Plates = net.plateResults(state)
 	return sol
 }
 

@@ -52,11 +52,11 @@ func (p *Steady) Kinds() []solve.Kind { return varKinds }
 func (p *Steady) KindOf(i int) int { return int(p.net.Vars[p.net.unknown[i]].Kind) }
 
 // Name names unknown i for messages.
-func (p *Steady) Name(i int) string { return p.net.Vars[p.net.unknown[i]].Name() }
+func (p *Steady) Name(i int) string { return p.net.varName(p.net.unknown[i]) }
 
 // EquationName names the equation of unknown i for messages, e.g.
 // `heat balance of "cpu"`.
-func (p *Steady) EquationName(i int) string { return p.net.Vars[p.net.unknown[i]].Equation() }
+func (p *Steady) EquationName(i int) string { return p.net.varEquation(p.net.unknown[i]) }
 
 // Variable returns the network variable of unknown i.
 func (p *Steady) Variable(i int) int { return p.net.unknown[i] }

@@ -349,6 +349,7 @@ func newAccountant(net *Network) *accountant {
 func (a *accountant) temperatures(t float64, x []float64) []float64 {
 	a.p.SetTime(t)
 	_ = a.p.load(x)
+	a.net.refreshViews(a.p.x)
 	copy(a.temps, a.p.x[:len(a.net.Nodes)])
 	return a.temps
 }

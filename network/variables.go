@@ -59,6 +59,9 @@ type Variable struct {
 	Kind  VarKind
 	Owner string // the node or link it belongs to
 	Given bool
+	// Cell is 1 + the index of the cell within its plate (Owner) when the
+	// variable is a plate cell's temperature, else 0.
+	Cell  int32
 	Value float64 // SI
 }
 

@@ -10,7 +10,9 @@ import (
 )
 
 // CSVHeader is the header row of WriteCSV. The record column says what a
-// row is: "node", "link", or "boundary" (heat leaving through a fixed node).
+// row is: "node", "link", "boundary" (heat leaving through a fixed node),
+// or "join" (the heat through one join of a meshed plate, from the plate
+// to the node joined; the plate's cells are written by WritePlateCells).
 var CSVHeader = []string{"record", "id", "kind", "from", "to", "temperature_degC", "limit_degC", "margin_K", "status", "power_W", "heat_W"}
 
 // WriteCSV writes one table holding every node, link and boundary flow of a
@@ -42,6 +44,11 @@ func WriteCSV(w io.Writer, sol *network.Solution) error {
 	}
 	for _, o := range sol.Balance.Out {
 		rows = append(rows, []string{"boundary", o.Node, "", "", "", "", "", "", "", "", num(o.Heat)})
+	}
+	for _, p := range sol.Plates {
+		for _, j := range p.Joins {
+			rows = append(rows, []string{"join", j.Name, j.Kind, p.ID, j.Node, "", "", "", "", "", num(j.Heat)})
+		}
 	}
 	if err := cw.WriteAll(rows); err != nil {
 		return err

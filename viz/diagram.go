@@ -447,6 +447,13 @@ func (d *dotBuilder) legendFor(sol *network.Solution, opt DiagramOptions, tMin, 
 	line("thick dark outline: OVER the limit", overOutline)
 	line("box: solid; octagon: junction;", "")
 	line("ellipse: air; cylinder: fixed", "")
+	for _, n := range ds.nodes {
+		if n.Kind == plateKind {
+			line("3-D slab: meshed plate, at its", "")
+			line("hottest cell, with its mean", "")
+			break
+		}
+	}
 	if split {
 		line("(a fixed node is drawn", "")
 		line("at each of its links)", "")

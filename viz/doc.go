@@ -2,6 +2,11 @@
 // scripts, and heat-path diagrams as DOT, SVG or PNG. It never solves; it
 // reads a network.Solution.
 //
+// A meshed plate is one node of the reports, at its hottest cell, with a
+// summary of its own (plates.go); its heat map is drawn as SVG or PNG
+// (heatmap.go) and its cells are written on request as CSV or compact JSON
+// (platecells.go).
+//
 // Units are stated everywhere: text headers carry them, JSON and CSV put
 // them in the key and column names (temperature_degC, heat_W, margin_K).
 // Temperatures are shown in degrees Celsius, differences in kelvin, heat

@@ -97,6 +97,7 @@ func DOTWith(sol *network.Solution, opt DiagramOptions) (string, error) {
 	}
 
 	steps := marginScaleFor(sol.Net.Model.RequiredMargin)
+	plates := plateByID(sol)
 	for _, n := range ds.nodes {
 		fill := nodeFill(n, opt.Colouring, tMin, tMax, steps)
 		attrs := map[string]string{
@@ -118,6 +119,9 @@ func DOTWith(sol *network.Solution, opt DiagramOptions) (string, error) {
 			attrs["penwidth"] = "2.5"
 			attrs["color"] = q(tightOutline)
 			attrs["style"] = q("filled,rounded,dashed")
+		}
+		if n.Kind == plateKind {
+			plateNodeAttrs(attrs, n, plates[n.ID], opt)
 		}
 		names := copies[n.ID]
 		if len(names) == 0 {
@@ -220,8 +224,10 @@ func heatEdges(sol *network.Solution) []heatEdge {
 			flows[b.Link] = b.VolumeFlow
 		}
 	}
+	linked := map[[2]string]bool{} // pairs of nodes a link joins
 	for _, l := range sol.Links {
 		for k, p := range l.Paths {
+			linked[[2]string{p.From, p.To}], linked[[2]string{p.To, p.From}] = true, true
 			if k > 0 && p.Heat == 0 {
 				continue
 			}
@@ -242,6 +248,7 @@ func heatEdges(sol *network.Solution) []heatEdge {
 			}
 		}
 	}
+	plateJoinEdges(sol, linked, add)
 	for i := range edges {
 		e := &edges[i]
 		if e.heat < 0 {
@@ -301,6 +308,8 @@ func nodeShape(k network.NodeKind) string {
 		return "octagon"
 	case network.Air:
 		return "ellipse"
+	case plateKind:
+		return "box3d"
 	}
 	return "box"
 }

@@ -101,6 +101,9 @@ func NonFinite(sol *network.Solution) []string {
 			}
 		}
 	}
+	for i := range sol.Plates {
+		w = append(w, plateWarnings(&sol.Plates[i])...)
+	}
 	check("energy balance", "heat in", sol.Balance.In)
 	check("energy balance", "imbalance", sol.Balance.Imbalance)
 	for _, o := range sol.Balance.Out {

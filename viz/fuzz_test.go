@@ -9,6 +9,7 @@ import (
 	"math"
 	"os"
 	"path/filepath"
+	"regexp"
 	"strconv"
 	"strings"
 	"testing"
@@ -27,7 +28,8 @@ import (
 //
 // Invariants: nothing panics; a writer writing to memory returns no error;
 // the JSON document is valid JSON whose numbers are all finite; the CSV
-// reads back with one row per node, link and boundary; and a converged
+// reads back with one row per node, link, boundary and plate join; a
+// meshed plate's heat map and cells are written; and a converged
 // solution's energy balance closes within Balance.MaxImbalance.
 func FuzzReports(f *testing.F) {
 	for _, path := range seedModels(f) {
@@ -91,7 +93,11 @@ func FuzzReports(f *testing.F) {
 		if err != nil {
 			t.Fatalf("WriteCSV wrote unreadable CSV: %v", err)
 		}
-		if want := 1 + len(sol.Nodes) + len(sol.Links) + len(sol.Balance.Out); len(rows) != want {
+		want := 1 + len(sol.Nodes) + len(sol.Links) + len(sol.Balance.Out)
+		for _, p := range sol.Plates {
+			want += len(p.Joins)
+		}
+		if len(rows) != want {
 			t.Fatalf("WriteCSV wrote %d rows, want %d", len(rows), want)
 		}
 
@@ -106,8 +112,30 @@ func FuzzReports(f *testing.F) {
 		}
 
 		checkJSON(t, viz.NewReport(m, sol, run), sol)
+
+		// Meshed plates: their heat maps and cells.
+		for i := range sol.Plates {
+			var svg bytes.Buffer
+			if err := viz.WritePlateSVG(&svg, &sol.Plates[i], viz.HeatMapOptions{}); err != nil {
+				t.Fatalf("WritePlateSVG(%s): %v", sol.Plates[i].ID, err)
+			}
+			if nonFiniteAttr.MatchString(svg.String()) {
+				t.Fatalf("WritePlateSVG(%s) wrote a number that is not finite", sol.Plates[i].ID)
+			}
+		}
+		buf.Reset()
+		if err := viz.WritePlateCells(&buf, sol, viz.CellsJSON); err != nil {
+			t.Fatalf("WritePlateCells: %v", err)
+		}
+		if !json.Valid(buf.Bytes()) {
+			t.Fatalf("WritePlateCells wrote invalid JSON")
+		}
 	})
 }
+
+// nonFiniteAttr finds a number that is not finite written into an SVG
+// attribute or path.
+var nonFiniteAttr = regexp.MustCompile(`="[-+]?(NaN|Inf)"|[MhvH][-+]?(NaN|Inf)|[0-9] [-+]?(NaN|Inf)h`)
 
 // checkJSON writes r and checks that it is valid JSON with finite numbers
 // (a non-finite value is never written as a number; the input that once

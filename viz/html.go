@@ -30,6 +30,7 @@ type HTMLReport struct {
 	Balance     []htmlBalance
 	Imbalance   string
 	Breakdown   *Breakdown
+	Plates      []htmlPlate // every meshed plate: its summary and heat map
 	Method      string
 	Caution     string
 	SVG         template.HTML // the diagram, inline; produced by Graphviz from our own DOT
@@ -137,6 +138,7 @@ func NewHTMLReport(sol *network.Solution, run Run, svg []byte) *HTMLReport {
 		}
 	}
 	r.Imbalance = fnum("%.3g", sol.Balance.Imbalance)
+	r.Plates = newHTMLPlates(sol)
 	return r
 }
 
@@ -211,13 +213,14 @@ tr.tight td { background: #f8ecd2; }
 .error { border: 2px solid #77184d; padding: 0.6em 1em; background: #fbeef3; white-space: pre-wrap; font-family: ui-monospace, monospace; }
 .diagram { overflow-x: auto; }
 .diagram svg { max-width: 100%; height: auto; }
+.heatmap svg { max-width: 100%; height: auto; }
 .verdict { font-weight: bold; }
 .small { color: #555; font-size: 0.9em; }
 @page { size: auto; margin: 15mm; }
 @media print {
   body { margin: 0; max-width: none; font-size: 10pt; }
   h2 { break-after: avoid; }
-  table, .diagram, section.source { break-inside: avoid; }
+  table, .diagram, section.source, section.plate { break-inside: avoid; }
   .diagram svg { max-height: 240mm; }
   .noprint { display: none; }
 }
@@ -248,6 +251,26 @@ tr.tight td { background: #f8ecd2; }
 <tbody>{{range .Nodes}}<tr class="{{.Class}}"><td>{{.ID}}</td><td>{{.Kind}}</td><td class="n">{{.Temp}}</td><td class="n">{{.Power}}</td><td class="n">{{.Limit}}</td><td class="n">{{.Margin}}</td><td>{{.Status}}</td></tr>
 {{end}}</tbody>
 </table>
+{{if .Plates}}<h2>Meshed plates</h2>
+<p class="small">Each plate is one node of the results above, at its hottest cell. Heat maps show the top layer; a block shows the hottest of the cells it covers.</p>
+{{range .Plates}}<section class="plate">
+<h3>{{.ID}}</h3>
+<table class="plate-summary">
+<tr><th>size</th><td>{{.Size}}</td></tr>
+<tr><th>hottest</th><td class="n">{{.Hottest}} °C</td><td>at {{.Where}}</td></tr>
+<tr><th>mean</th><td class="n">{{.Mean}} °C</td><td>weighted by cell volume</td></tr>
+<tr><th>coolest</th><td class="n">{{.Coolest}} °C</td><td></td></tr>
+<tr class="{{.Class}}"><th>limit</th><td class="n">{{.Limit}}</td><td>{{.Status}}</td></tr>
+{{if .Parts}}<tr><th>parts on it</th><td colspan="2">{{.Parts}}</td></tr>{{end}}
+</table>
+{{if .Joins}}<table class="plate-joins">
+<thead><tr><th>join</th><th>node</th><th>heat [W] (positive out of the plate)</th></tr></thead>
+<tbody>{{range .Joins}}<tr><td>{{.Name}}</td><td>{{.Node}}</td><td class="n">{{.Heat}}</td></tr>
+{{end}}</tbody>
+</table>{{end}}
+{{if .Error}}<p class="error">{{.Error}}</p>{{else}}<div class="heatmap">{{.SVG}}</div>{{end}}
+</section>
+{{end}}{{end}}
 <h2>Heat paths</h2>
 <div class="diagram" id="diagram">{{.SVG}}</div>
 <table id="links">

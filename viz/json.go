@@ -28,6 +28,9 @@ type Report struct {
 	Links           []LinkReport   `json:"links,omitempty"`
 	Balance         *BalanceReport `json:"energy_balance,omitempty"`
 	Airflow         *AirflowReport `json:"airflow,omitempty"` // when flows were solved for
+	// Plates summarises every meshed plate, without its cells (see
+	// WritePlateCells for those).
+	Plates []PlateReport `json:"plates,omitempty"`
 	// Exceeded lists the nodes over their limits; always present, empty
 	// when every limit holds.
 	Exceeded []string `json:"limits_exceeded"`
@@ -193,6 +196,7 @@ func NewReport(m *network.Model, sol *network.Solution, run Run) *Report {
 	}
 	r.Balance = b
 	r.Airflow = newAirflowReport(sol)
+	r.Plates = newPlateReports(sol)
 	r.Breakdown = NewBreakdown(sol).Report()
 	r.Warnings = append(r.Warnings, sol.Warnings...)
 	r.Warnings = append(r.Warnings, NonFinite(sol)...)

@@ -94,6 +94,7 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 
 	writeDetails(tw, sol)
 	writeAirflow(tw, sol)
+	writePlates(tw, sol)
 
 	b := sol.Balance
 	tw.printf("\nenergy balance [W]\n")
