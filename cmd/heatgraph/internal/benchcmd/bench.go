@@ -82,10 +82,10 @@ The solves inherit the environment, so GOMAXPROCS=2 heatgraph bench
 measures on two threads.
 
 Exit status: 0 when every case converged (targets are reported, not
-enforced, unless --strict), 1 with --strict when a target is missed,
-3 when a case failed: no solution, an energy balance that does not close,
-or no result within --timeout or --max-memory; 2 for an invalid command line, 4 when a
-solve could not run or its report could not be read.`,
+enforced, unless --strict), 1 with --strict when a target is missed, 3
+when a case failed: no solution, an energy balance that does not close,
+or no result within --timeout or --max-memory; 2 for an invalid command
+line, 4 when a solve could not run or its report could not be read.`,
 		Example: `  heatgraph bench
   heatgraph bench --sizes 1e3,1e4 --shapes board --repeat 5
   GOMAXPROCS=2 heatgraph bench --sizes 1e6 --markdown

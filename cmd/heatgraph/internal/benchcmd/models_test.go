@@ -2,7 +2,6 @@ package benchcmd
 
 import (
 	"math"
-	"strings"
 	"testing"
 
 	"github.com/heatgraph/heatgraph/network"
@@ -56,28 +55,28 @@ func TestParseSize(t *testing.T) {
 	}
 }
 
-// parsePlates reads a generated model, and skips the test when this build
-// does not read plates yet.
-func parsePlates(t *testing.T, c Case) *network.Model {
-	t.Helper()
-	m, err := network.Parse(c.Name()+".yaml", c.Model())
-	if err != nil && strings.Contains(err.Error(), "plates: unknown key") {
-		t.Skip("this build does not read plates: yet")
-	}
-	require.NoError(t, err, "%s", c.Model())
-	return m
-}
-
-// The generated models are valid: they parse and build.
+// The generated models are valid: they parse, with the mesh of their
+// case, and build into a network whose unknowns are the cells and the
+// nodes that are not cells (the board's five junctions and its heat sink,
+// the block's one junction).
 func TestModelsBuild(t *testing.T) {
+	others := map[string]int{"board": 6, "block": 1}
 	for _, shape := range Shapes {
 		for _, size := range []float64{8, 1e3, 1e4} {
 			c, err := NewCase(shape, size, "n")
 			require.NoError(t, err)
-			m := parsePlates(t, c)
+			m, err := network.Parse(c.Name()+".yaml", c.Model())
+			require.NoError(t, err, "%s", c.Model())
+			require.Len(t, m.Plates, 1)
+			p := m.Plates[0]
+			through := 0
+			for _, l := range p.Layers {
+				through += l.Cells
+			}
+			assert.Equal(t, [3]int{c.NX, c.NY, c.NZ}, [3]int{p.NX, p.NY, through}, c.Name())
 			net, err := network.Build(m)
 			require.NoError(t, err, "%s", c.Model())
-			assert.Greater(t, net.Unknowns(), c.Cells(), "%s: every cell and every junction is an unknown", c.Name())
+			assert.Equal(t, c.Cells()+others[shape], net.Unknowns(), c.Name())
 		}
 	}
 }

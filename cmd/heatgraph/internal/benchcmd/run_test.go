@@ -14,7 +14,6 @@ import (
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/iostreams"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/root"
-	"github.com/heatgraph/heatgraph/network"
 	"github.com/stretchr/testify/assert"
 	"github.com/stretchr/testify/require"
 )
@@ -46,15 +45,10 @@ func TestMain(m *testing.M) {
 // by a heatgraph process, converges, and closes its energy balance; the
 // table has a row for each with every column filled in but the targets.
 func TestBenchSolvesSmallModels(t *testing.T) {
-	c, err := benchcmd.NewCase("block", 1e3, "1e3")
-	require.NoError(t, err)
-	if _, err := network.Parse("probe.yaml", c.Model()); err != nil && strings.Contains(err.Error(), "plates: unknown key") {
-		t.Skip("this build does not read plates: yet")
-	}
 	t.Setenv("HEATGRAPH_BENCH_AS_MAIN", "1")
 	ios, _, out, errOut := iostreams.Test()
 	kept := t.TempDir()
-	err = benchcmd.Run(&benchcmd.Options{IO: ios, Sizes: []string{"1e3", "2e2"}, Shapes: benchcmd.Shapes, Repeat: 2, Binary: os.Args[0], Keep: kept})
+	err := benchcmd.Run(&benchcmd.Options{IO: ios, Sizes: []string{"1e3", "2e2"}, Shapes: benchcmd.Shapes, Repeat: 2, Binary: os.Args[0], Keep: kept})
 	require.NoError(t, err, "%s\n%s", out, errOut)
 	lines := strings.Split(out.String(), "\n")
 	assert.Equal(t, benchcmd.Columns, regexp.MustCompile(`\s{2,}`).Split(strings.TrimSpace(lines[0]), -1))
