@@ -89,11 +89,11 @@ type ComponentSpec struct {
 	At, Footprint [2]float64
 	Placed        bool // At and Footprint are given
 	Side          string
-	Limit    float64 // highest allowed junction temperature, K (when HasLimit)
-	HasLimit bool
-	Note     string
-	Group    string // as NodeSpec.Group
-	Line     int
+	Limit         float64 // highest allowed junction temperature, K (when HasLimit)
+	HasLimit      bool
+	Note          string
+	Group         string // as NodeSpec.Group
+	Line          int
 	// PowerProfile, when not nil, gives the power during a run; Power is
 	// its value at t = 0.
 	PowerProfile Profile

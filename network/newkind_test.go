@@ -160,3 +160,52 @@ links:
 		t.Errorf("wrong derivative not caught: %+v", c)
 	}
 }
+
+// In a problem too large to difference every column (a meshed plate of
+// 2,500 cells), the sampled columns and the random directions still catch
+// a wrong derivative, here of a link beside the plate, and the plate's own
+// entries pass.
+func TestJacobianCheckCatchesWrongDerivativeBesidePlate(t *testing.T) {
+	registerVarying(t, "wrong-bar-2", true)
+	m, err := Parse("bar.yaml", []byte(`
+ambient: {temperature: 20 degC}
+nodes:
+  - {id: hot, power: 10 W}
+plates:
+  - id: lid
+    size: [50 mm, 50 mm]
+    cell: 1 mm
+    material: aluminium
+    thickness: 2 mm
+    faces:
+      - {face: bottom, region: [20 mm, 20 mm, 30 mm, 30 mm], to: hot, contact: 100 K*cm2/W}
+      - {face: top, to: ambient, h: 10 W/(m2 K), emissivity: 0.8}
+links:
+  - {kind: wrong-bar-2, from: hot, to: ambient, conductance: 0.5 W/K, coefficient: 0.004, reference: 20 degC}
+`))
+	if err != nil {
+		t.Fatal(err)
+	}
+	net, err := Build(m)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p := net.Steady()
+	if p.Size() <= FullCheckUnknowns {
+		t.Fatalf("%d unknowns: the test needs more than %d", p.Size(), FullCheckUnknowns)
+	}
+	x := p.OffKinks(p.InitialGuess())
+	x[0] = 313.15 // "hot", 20 K above the reference, where the error shows
+	c, err := net.CheckJacobian(x, 3)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if c.MaxError < 1e-3 || len(c.Worst) == 0 || !strings.Contains(strings.Join(c.Worst[0].Elements, " "), "wrong-bar-2") {
+		t.Errorf("wrong derivative not caught: %+v", c)
+	}
+	for _, e := range c.Worst {
+		if strings.Contains(e.Equation, "cell") && e.Error > DefaultJacobianTolerance {
+			t.Errorf("a plate entry fails: %+v", e)
+		}
+	}
+}

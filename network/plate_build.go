@@ -82,7 +82,11 @@ func (net *Network) buildPlates(m *Model) Problems {
 			if f.HasRegion {
 				j.Region = elements.Rect{X0: f.Region[0], Y0: f.Region[1], X1: f.Region[2], Y1: f.Region[3]}
 			}
-			name := func(kind string) string { return fmt.Sprintf("%s to %s (%s)", f.Face, f.To, kind) }
+			where := f.Face
+			if f.HasRegion {
+				where += fmt.Sprintf(" %.4g–%.4g × %.4g–%.4g mm", f.Region[0]*1e3, f.Region[2]*1e3, f.Region[1]*1e3, f.Region[3]*1e3)
+			}
+			name := func(kind string) string { return fmt.Sprintf("%s to %s (%s)", where, f.To, kind) }
 			switch {
 			case f.H > 0:
 				j.PerArea, j.Name = f.H, name("convection")

@@ -17,7 +17,10 @@ import (
 // WritePlateCells writes on request. No report copies the cells.
 
 // plateKind is the node kind of a meshed plate.
-const plateKind network.NodeKind = "plate"
+const plateKind = network.Plate
+
+// plateLink is the kind of the link that stands for a plate's element.
+const plateLink = "plate"
 
 // checkPlate reports what makes a plate result unfit to draw or write.
 func checkPlate(p *network.PlateResult) error {

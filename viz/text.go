@@ -78,6 +78,15 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 	}
 	tw.printf("\n%-*s  %-*s  %10s  %s\n", idw, "link", kw, "kind", "heat [W]", "from → to (positive heat flows this way)")
 	for _, l := range sol.Links {
+		if l.Kind == plateLink {
+			// A plate's joins are listed with the plate, below.
+			out := 0.0
+			for _, p := range l.Paths {
+				out += p.Heat
+			}
+			tw.printf("%-*s  %-*s  %10s  %s → its %d joins (see plates below)\n", idw, l.ID, kw, l.Kind, fnum("%.3f", noNegZero(out, 3)), l.From, len(l.Paths))
+			continue
+		}
 		tw.printf("%-*s  %-*s  %10s  %s → %s", idw, l.ID, kw, l.Kind, fnum("%.3f", noNegZero(l.Heat, 3)), l.From, l.To)
 		for _, p := range l.Paths[min(1, len(l.Paths)):] {
 			if p.Heat == 0 || noNegZero(p.Heat, 3) == 0 {
@@ -137,7 +146,7 @@ func writeDetails(tw *textWriter, sol *network.Solution) {
 				nums = append(nums, detailText(d))
 			}
 		}
-		if len(texts) == 0 {
+		if len(texts) == 0 || l.Kind == plateLink {
 			continue
 		}
 		if first {

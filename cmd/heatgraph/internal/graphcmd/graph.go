@@ -34,6 +34,16 @@ type Options struct {
 	Source string
 	// Timeout bounds the layout; a larger diagram stops with an error.
 	Timeout time.Duration
+	// Plate draws the heat map of this plate (.svg or .png) instead of
+	// the heat-path diagram.
+	Plate string
+	// Layer is the layer of cells the heat map draws, 0 at the bottom,
+	// when LayerSet; else the top layer.
+	Layer    int
+	LayerSet bool
+	// Through, ThroughHottest, draws each column of cells through the
+	// thickness as its hottest cell.
+	Through string
 }
 
 // DefaultTimeout is the default bound on the layout time.
@@ -54,11 +64,19 @@ the colours. The format follows the output file's extension: .dot or .gv
 Large diagrams take long to lay out: the layout stops after
 --layout-timeout (60s by default) with an error.
 
+--plate ID draws the heat map of one of the model's plates instead (.svg
+or .png): its cells coloured by temperature, the parts on it outlined,
+its hottest cell marked. It shows the top layer of cells, or --layer K
+(0 at the bottom face), or --through hottest: the hottest cell through
+the thickness of each column.
+
 Exit status as for solve; the file is written only when the solve converged.`,
-		Example: "  heatgraph graph examples/outdoor-controller.yaml -o controller.svg",
-		Args:    cobra.ExactArgs(1),
-		RunE: func(_ *cobra.Command, args []string) error {
+		Example: "  heatgraph graph examples/outdoor-controller.yaml -o controller.svg\n" +
+			"  heatgraph graph examples/camera-board.yaml --plate board -o board.png",
+		Args: cobra.ExactArgs(1),
+		RunE: func(c *cobra.Command, args []string) error {
 			o.Model = args[0]
+			o.LayerSet = c.Flags().Changed("layer")
 			if runF != nil {
 				return runF(o)
 			}
@@ -73,18 +91,27 @@ Exit status as for solve; the file is written only when the solve converged.`,
 	cmd.Flags().StringSliceVar(&o.Collapse, "collapse", nil, "draw a group (a node's group key) as one node; repeat or separate by commas")
 	cmd.Flags().StringVar(&o.Source, "source", "", "draw only the heat of this source node, along the paths it takes")
 	cmd.Flags().DurationVar(&o.Timeout, "layout-timeout", DefaultTimeout, "give up drawing a diagram whose layout takes longer than this")
+	cmd.Flags().StringVar(&o.Plate, "plate", "", "draw the heat map of this plate (.svg or .png) instead of the heat-path diagram")
+	cmd.Flags().IntVar(&o.Layer, "layer", 0, "with --plate: the layer of cells to draw, 0 at the bottom face (default the top layer)")
+	cmd.Flags().StringVar(&o.Through, "through", "", "with --plate: \"hottest\" draws the hottest cell through the thickness of each column")
 	cmd.Flags().StringArrayVar(&o.Set, "set", nil, pipeline.SetHelp)
 	return cmd
 }
 
 // Run solves the model and writes the diagram.
 func Run(o *Options) error {
+	if o.Output == "" && o.plateMode() {
+		return exit.With(exit.BadInput, "graph --plate needs an output file: -o FILE with .svg or .png")
+	}
 	if o.Output == "" {
 		return exit.With(exit.BadInput, "graph needs an output file: -o FILE with .dot, .gv, .svg or .png")
 	}
 	format, err := viz.FormatFor(o.Output)
 	if err != nil {
 		return &exit.Error{Code: exit.BadInput, Err: err}
+	}
+	if o.plateMode() {
+		return runPlate(o, format)
 	}
 	colour := viz.Colouring(o.Colour)
 	if colour != viz.ColourMargin && colour != viz.ColourTemperature {

@@ -7,6 +7,7 @@ import (
 	"encoding/hex"
 	"errors"
 	"fmt"
+	"io"
 	"io/fs"
 	"math"
 	"os"
@@ -63,13 +64,19 @@ func Solve(path string, settings solve.Settings, sets ...string) (*Outcome, erro
 	if err != nil {
 		return nil, err
 	}
+	return SolveNetwork(net, settings), nil
+}
+
+// SolveNetwork solves a loaded network for the steady state, for commands
+// that check the command line against the model before solving.
+func SolveNetwork(net *network.Network, settings solve.Settings) *Outcome {
 	p := net.Steady()
 	res := solve.Newton(p, p.InitialGuess(), settings)
 	out := &Outcome{Net: net, Result: res, Run: RunOf(p, res)}
 	if out.Run.Converged {
 		out.Solution = net.Solution(res.X)
 	}
-	return out, nil
+	return out
 }
 
 // SetHelp is the help of the --set option every command that reads a model
@@ -151,6 +158,17 @@ func (o *Outcome) Code() int {
 //
 // Failures other than the first are exit code OutputFailed.
 func WriteFile(path string, data []byte, inputs ...string) error {
+	return WriteStream(path, func(w io.Writer) error {
+		_, err := w.Write(data)
+		return err
+	}, inputs...)
+}
+
+// WriteStream is WriteFile for output too large to hold in memory: write
+// produces the data into the (temporary) file. An error from write
+// discards the temporary file and leaves path as it was; it is exit code
+// OutputFailed.
+func WriteStream(path string, write func(io.Writer) error, inputs ...string) error {
 	if err := notAnInput(path, inputs); err != nil {
 		return err
 	}
@@ -162,7 +180,7 @@ func WriteFile(path string, data []byte, inputs ...string) error {
 	if fi, err := os.Stat(path); err == nil && fi.IsDir() {
 		return fail(errors.New("it is a folder"))
 	} else if err == nil && !fi.Mode().IsRegular() {
-		return writeDirect(path, data, fail)
+		return writeDirect(path, write, fail)
 	}
 	target, err := resolveLinks(path)
 	if err != nil {
@@ -172,7 +190,7 @@ func WriteFile(path string, data []byte, inputs ...string) error {
 	explicit := false // perm is an existing file's and must be kept exactly
 	switch fi, err := os.Stat(target); {
 	case err == nil && !fi.Mode().IsRegular():
-		return writeDirect(target, data, fail)
+		return writeDirect(target, write, fail)
 	case err == nil:
 		perm, explicit = fi.Mode().Perm(), true
 	case !errors.Is(err, fs.ErrNotExist):
@@ -187,7 +205,7 @@ func WriteFile(path string, data []byte, inputs ...string) error {
 	if TestHookWriting != nil {
 		TestHookWriting(name)
 	}
-	_, werr := tmp.Write(data)
+	werr := write(tmp)
 	if werr == nil && explicit {
 		// The umask may have taken bits away from the existing mode.
 		werr = tmp.Chmod(perm)
@@ -275,14 +293,14 @@ func createTemp(dir, base string, perm os.FileMode) (*os.File, string, func(), e
 	return nil, "", nil, errors.New("cannot find an unused temporary file name")
 }
 
-// writeDirect writes data into an existing file that is not a regular
-// file (a device, a named pipe): such files cannot be replaced.
-func writeDirect(path string, data []byte, fail func(error) error) error {
+// writeDirect writes into an existing file that is not a regular file (a
+// device, a named pipe): such files cannot be replaced.
+func writeDirect(path string, write func(io.Writer) error, fail func(error) error) error {
 	f, err := os.OpenFile(path, os.O_WRONLY, 0)
 	if err != nil {
 		return fail(err)
 	}
-	_, err = f.Write(data)
+	err = write(f)
 	if cerr := f.Close(); err == nil {
 		err = cerr
 	}

@@ -4,6 +4,8 @@ package pipeline
 
 import (
 	"errors"
+	"fmt"
+	"io"
 	"os"
 	"path/filepath"
 	"strings"
@@ -181,5 +183,38 @@ func TestWriteFileTracksTemporary(t *testing.T) {
 	require.NoError(t, WriteFile(filepath.Join(dir, "r.txt"), []byte("x")))
 	assert.True(t, existed)
 	assert.Regexp(t, `/\.r\.txt\.[0-9a-f]+\.tmp$`, seen)
+	noTemporaries(t, dir)
+}
+
+// A stream that fails halfway leaves the old file as it was and no
+// temporary file; one that succeeds replaces it.
+func TestWriteStream(t *testing.T) {
+	dir := t.TempDir()
+	out := filepath.Join(dir, "cells.csv")
+	require.NoError(t, os.WriteFile(out, []byte("good\n"), 0o644))
+	err := WriteStream(out, func(w io.Writer) error {
+		if _, err := io.WriteString(w, "half a ro"); err != nil {
+			return err
+		}
+		return errors.New("the writer stopped")
+	})
+	assert.Equal(t, exit.OutputFailed, code(err))
+	assert.ErrorContains(t, err, "the writer stopped")
+	data, rerr := os.ReadFile(out)
+	require.NoError(t, rerr)
+	assert.Equal(t, "good\n", string(data))
+	noTemporaries(t, dir)
+
+	require.NoError(t, WriteStream(out, func(w io.Writer) error {
+		for i := range 3 {
+			if _, err := fmt.Fprintf(w, "row %d\n", i); err != nil {
+				return err
+			}
+		}
+		return nil
+	}))
+	data, rerr = os.ReadFile(out)
+	require.NoError(t, rerr)
+	assert.Equal(t, "row 0\nrow 1\nrow 2\n", string(data))
 	noTemporaries(t, dir)
 }
