@@ -7,6 +7,7 @@ import (
 	"fmt"
 	"strings"
 
+	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/benchcmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/checkcmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/comparecmd"
 	"github.com/heatgraph/heatgraph/cmd/heatgraph/internal/exit"
@@ -66,6 +67,7 @@ codes, product-safety standards and licensed engineering practice.`,
 		mergecmd.NewCmd(ios, nil),
 		montecarlocmd.NewCmd(ios, nil),
 		comparecmd.NewCmd(ios, nil),
+		benchcmd.NewCmd(ios, nil),
 	)
 	for _, sub := range cmd.Commands() {
 		classify(sub)
