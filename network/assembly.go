@@ -54,14 +54,31 @@ func (net *Network) assemble() *assembly {
 	}
 	blocks := make([]block, len(a.elems))
 	a.entries = make([]int, len(a.elems))
+	// Count the entries first, so that nothing below reallocates: a
+	// meshed plate has millions.
+	total, nrows, nvars := 0, 0, 0
 	for e, el := range a.elems {
 		rows, vars := el.Rows(), el.Vars()
 		blocks[e] = block{rows: rows, vars: vars}
 		a.entries[e] = -1
 		if p, ok := el.(elements.Patterned); ok {
-			er, ev := p.Entries()
-			blocks[e].er, blocks[e].ev = er, ev
-			a.entries[e] = len(er)
+			blocks[e].er, blocks[e].ev = p.Entries()
+			a.entries[e] = len(blocks[e].er)
+			total += len(blocks[e].er)
+		} else {
+			total += len(rows) * len(vars)
+		}
+		nrows += len(rows)
+		nvars += len(vars)
+	}
+	b.Grow(total)
+	a.slots = make([]int32, 0, total)
+	a.rows = make([]int32, 0, nrows)
+	a.given = make([]bool, 0, nvars)
+	for e, el := range a.elems {
+		rows, vars := blocks[e].rows, blocks[e].vars
+		if a.entries[e] >= 0 {
+			er, ev := blocks[e].er, blocks[e].ev
 			for k := range er {
 				fr, fv := net.free[rows[er[k]]], net.free[vars[ev[k]]]
 				if fr >= 0 && fv >= 0 {

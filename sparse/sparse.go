@@ -6,6 +6,7 @@
 package sparse
 
 import (
+	"slices"
 	"fmt"
 	"sort"
 )
@@ -20,6 +21,13 @@ type Builder struct {
 // NewBuilder returns a builder for an n×n matrix.
 func NewBuilder(n int) *Builder {
 	return &Builder{n: n}
+}
+
+// Grow makes room for k more marks, so that marking a known number of
+// entries does not reallocate.
+func (b *Builder) Grow(k int) {
+	b.rows = slices.Grow(b.rows, k)
+	b.cols = slices.Grow(b.cols, k)
 }
 
 // Mark records that entry (i, j) may be non-zero. Marking an entry twice is
