@@ -584,3 +584,16 @@ func (m *Model) plate(id string) *PlateSpec {
 	}
 	return nil
 }
+
+// Cells returns the number of cells the model's plates mesh into.
+func (m *Model) Cells() int {
+	n := 0
+	for _, p := range m.Plates {
+		through := 0
+		for _, l := range p.Layers {
+			through += l.Cells
+		}
+		n += p.NX * p.NY * through
+	}
+	return n
+}
