@@ -73,9 +73,13 @@ func Run(o *Options) error {
 			fixed++
 		}
 	}
-	if _, err = fmt.Fprintf(o.IO.Out, "%s: valid: %s (%d fixed), %s, %s, %s\n",
+	plates := ""
+	if n := len(net.Model.Plates); n > 0 {
+		plates = fmt.Sprintf(", %s meshed into %s", count(n, "plate"), count(net.Model.Cells(), "cell"))
+	}
+	if _, err = fmt.Fprintf(o.IO.Out, "%s: valid: %s (%d fixed), %s, %s, %s%s\n",
 		o.Model, count(len(net.Nodes), "node"), fixed, count(net.Unknowns(), "unknown"),
-		count(len(net.Model.Components), "component"), count(len(net.Links), "link")); err != nil {
+		count(len(net.Model.Components), "component"), count(len(net.Links), "link"), plates); err != nil {
 		return err
 	}
 	if !o.Jacobian {
