@@ -1,6 +1,7 @@
 package elements
 
 import (
+	"fmt"
 	"math"
 	"math/rand/v2"
 	"runtime"
@@ -815,5 +816,30 @@ func TestBoardConductivity(t *testing.T) {
 		if _, _, err := BoardConductivity(c.kin, c.kth, c.th, c.cu); err == nil || err.Error() != c.want {
 			t.Errorf("got %v, want %q", err, c.want)
 		}
+	}
+}
+
+// On a printed board taken as one layer (FaceAtCentre), a footprint's
+// conductance reaches the cells' centres whole: the shares are
+// Total·A_overlap/A_region with no half cell in series, while the same
+// footprint on a plain layer of the same conductivities has it.
+func TestPlateFaceAtCentre(t *testing.T) {
+	for _, board := range []bool{true, false} {
+		p, err := NewPlate(Plate{Name: "pcb", Width: 0.04, Length: 0.03, NX: 4, NY: 3, Base: 0, View: -1,
+			Layers: []PlateLayer{{Thickness: 1.6e-3, KIn: 22, KThrough: 0.36, Cells: 1, FaceAtCentre: board}},
+			Joins:  []PlateJoin{{Name: "part", Face: Top, Region: Rect{X0: 0.005, Y0: 0.005, X1: 0.02, Y1: 0.015}, Node: 12, Total: 0.25}}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		want := map[int32]float64{}
+		for c, a := range map[int32]float64{0: 5e-3 * 5e-3, 1: 10e-3 * 5e-3, 4: 5e-3 * 5e-3, 5: 10e-3 * 5e-3} {
+			g := 0.25 * a / (15e-3 * 10e-3)
+			if !board {
+				h := 2 * 0.36 * a / 1.6e-3 // half of the 1.6 mm cell, by hand
+				g = g * h / (g + h)
+			}
+			want[c] = g
+		}
+		checkShares(t, fmt.Sprintf("board %v", board), p.joins[0], want)
 	}
 }

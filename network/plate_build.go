@@ -62,7 +62,7 @@ func (net *Network) buildPlates(m *Model) Problems {
 		nz := 0
 		layers := make([]elements.PlateLayer, len(s.Layers))
 		for i, l := range s.Layers {
-			layers[i] = elements.PlateLayer{Thickness: l.Thickness, KIn: l.KIn, KThrough: l.KThrough, RhoC: l.RhoC, Cells: l.Cells}
+			layers[i] = elements.PlateLayer{Thickness: l.Thickness, KIn: l.KIn, KThrough: l.KThrough, RhoC: l.RhoC, Cells: l.Cells, FaceAtCentre: l.Board}
 			nz += l.Cells
 		}
 		bp.nz = nz

@@ -64,7 +64,10 @@ type PlateLayerSpec struct {
 	RhoC      float64 // volumetric heat capacity, J/(m3 K); 0 when not known
 	Cells     int     // cells through the layer
 	What      string  // the material or "printed board", for reports
-	Line      int
+	// Board marks a printed board of effective conductivities: joins on
+	// its faces act at its cells' centres (see elements.PlateLayer).
+	Board bool
+	Line  int
 }
 
 // PlateFaceSpec joins a face of a plate (or a region of it) to a node.
@@ -375,7 +378,7 @@ func (r *reader) readBoard(parent *object, l PlateLayerSpec) (PlateLayerSpec, bo
 		r.addf(o.node, o.path, "%v", err)
 		return l, false
 	}
-	l.Thickness, l.KIn, l.KThrough, l.RhoC = t, kIn, kThrough, rhoC
+	l.Thickness, l.KIn, l.KThrough, l.RhoC, l.Board = t, kIn, kThrough, rhoC, true
 	l.What = fmt.Sprintf("printed board, %d copper layers", len(copper))
 	return l, true
 }

@@ -6,8 +6,8 @@
 package sparse
 
 import (
-	"slices"
 	"fmt"
+	"slices"
 	"sort"
 )
 
