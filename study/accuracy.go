@@ -68,7 +68,7 @@ func AccuracyAt(pt *Point) ([]Band, error) {
 	if err := p.Evaluate(x, f0, jac, nil); err != nil {
 		return nil, err
 	}
-	lu, err := factorDense(jac)
+	lu, err := factorize(jac)
 	if err != nil {
 		return nil, err
 	}

@@ -7,10 +7,92 @@ import (
 	"gonum.org/v1/gonum/mat"
 )
 
+// factored is a factorization of the Jacobian for solves with it and with
+// its transpose.
+type factored interface {
+	solve(b []float64, trans bool) ([]float64, error)
+}
+
+// denseBelow is the size under which the Jacobian is factorized densely,
+// with its condition number checked; larger ones (meshed plates) take the
+// sparse LU, whose cost grows with the fill rather than as n³.
+const denseBelow = 500
+
+// factorize factorizes a for solves with it and its transpose.
+func factorize(a *sparse.Matrix) (factored, error) {
+	if a.N < denseBelow {
+		return factorDense(a)
+	}
+	return factorSparse(a)
+}
+
+// sparseLU holds sparse LU factorizations of a matrix and, once a
+// transpose solve asks for it, of its transpose.
+type sparseLU struct {
+	a, at *sparse.LU
+	m     *sparse.Matrix
+}
+
+func factorSparse(a *sparse.Matrix) (*sparseLU, error) {
+	f := &sparseLU{m: a.Clone()}
+	lu, err := luOf(f.m)
+	if err != nil {
+		return nil, err
+	}
+	f.a = lu
+	return f, nil
+}
+
+func luOf(a *sparse.Matrix) (*sparse.LU, error) {
+	lu := sparse.NewLU()
+	if err := lu.Analyse(a); err != nil {
+		return nil, err
+	}
+	if err := lu.Factorize(a); err != nil {
+		return nil, fmt.Errorf("the Jacobian at the solution cannot be factorized: %w", err)
+	}
+	return lu, nil
+}
+
+func (f *sparseLU) solve(b []float64, trans bool) ([]float64, error) {
+	lu := f.a
+	if trans {
+		if f.at == nil {
+			at, err := luOf(transposed(f.m))
+			if err != nil {
+				return nil, err
+			}
+			f.at = at
+		}
+		lu = f.at
+	}
+	x := make([]float64, len(b))
+	if err := lu.Solve(x, append([]float64(nil), b...)); err != nil {
+		return nil, err
+	}
+	return x, nil
+}
+
+// transposed returns Aᵀ in compressed rows.
+func transposed(a *sparse.Matrix) *sparse.Matrix {
+	b := sparse.NewBuilder(a.N)
+	b.Grow(a.NNZ())
+	for i := 0; i < a.N; i++ {
+		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
+			b.Mark(a.Col[k], i)
+		}
+	}
+	t := b.Build()
+	for i := 0; i < a.N; i++ {
+		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
+			t.Add(a.Col[k], i, a.Val[k])
+		}
+	}
+	return t
+}
+
 // denseLU is an LU factorization of a dense copy of a sparse matrix, for
-// solves with the matrix and with its transpose. Its cost grows as n³, as
-// the Newton solver's dense LU does; a sparse factorization with transpose
-// solves can replace it behind the same two functions.
+// solves with the matrix and with its transpose; small problems only.
 type denseLU struct {
 	n  int
 	lu mat.LU

@@ -84,7 +84,7 @@ func (m *Model) Sensitivity() (*Sensitivities, error) {
 	if err := p.Evaluate(x, f0, jac, nil); err != nil {
 		return nil, err
 	}
-	lu, err := factorDense(jac)
+	lu, err := factorize(jac)
 	if err != nil {
 		return nil, err
 	}
