@@ -2,6 +2,7 @@ package sparse
 
 import (
 	"errors"
+	"math"
 	"math/rand/v2"
 	"testing"
 )
@@ -171,4 +172,127 @@ func TestParallelDeterministic(t *testing.T) {
 			}
 		}
 	}
+}
+
+// The Galerkin product of a multigrid level against a plain triple sum
+// Σ_i Σ_k r_Ii·a_ik·p_kJ kept in a map, on grids small and large enough
+// for the product to split its rows between blocks: same entries (the
+// diagonal always stored), sorted rows, equal values to round-off.
+func TestGalerkinAgainstTripleSum(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 8))
+	for name, a := range map[string]*Matrix{
+		"grid2D 30×30":   grid2D(30, 30, rng),
+		"grid3D 9³":      grid3D(9, 9, 9, rng),
+		"grid2D 400×400": grid2D(400, 400, rng),
+		"network 700":    network(700, rng, false),
+	} {
+		l := &amgLevel{a: a}
+		if err := l.setDiag(); err != nil {
+			t.Fatal(err)
+		}
+		l.aggregate(DefaultAMGTheta)
+		l.prolongation(true, DefaultAMGTheta)
+		got := galerkin(l.r, a, l.p)
+		want := make([]map[int]float64, l.nagg)
+		for ci := range want {
+			want[ci] = map[int]float64{ci: 0}
+			for q := l.r.ptr[ci]; q < l.r.ptr[ci+1]; q++ {
+				i := int(l.r.col[q])
+				for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
+					j := a.Col[k]
+					for s := l.p.ptr[j]; s < l.p.ptr[j+1]; s++ {
+						want[ci][int(l.p.col[s])] += l.r.val[q] * a.Val[k] * l.p.val[s]
+					}
+				}
+			}
+		}
+		if got.N != l.nagg {
+			t.Fatalf("%s: order %d, want %d", name, got.N, l.nagg)
+		}
+		scale := 0.0
+		for _, v := range a.Val {
+			scale = math.Max(scale, math.Abs(v))
+		}
+		for ci := 0; ci < got.N; ci++ {
+			row := got.Col[got.RowPtr[ci]:got.RowPtr[ci+1]]
+			if len(row) != len(want[ci]) {
+				t.Fatalf("%s: row %d has %d entries, want %d", name, ci, len(row), len(want[ci]))
+			}
+			for k, c := range row {
+				if k > 0 && c <= row[k-1] {
+					t.Fatalf("%s: row %d not sorted: %v", name, ci, row)
+				}
+				w, ok := want[ci][c]
+				if !ok {
+					t.Fatalf("%s: entry (%d, %d) not in the product", name, ci, c)
+				}
+				if v := got.Val[got.RowPtr[ci]+k]; math.Abs(v-w) > 1e-12*scale {
+					t.Errorf("%s: entry (%d, %d) = %g, want %g", name, ci, c, v, w)
+				}
+			}
+		}
+		if got.Index(0, 0) < 0 {
+			t.Errorf("%s: no diagonal", name)
+		}
+	}
+}
+
+// A node joined weakly to many (a component's junction over the cells of
+// its footprint, the invented case of a 120×120 board with a 40×40
+// footprint, 0.01 of a cell-to-cell conductance per cell) must not spread
+// its row of the prolongation over every aggregate of the footprint: the
+// filtered smoother leaves its row empty, every row of P stays as short
+// as on the plain grid, and CG with the hierarchy converges as fast.
+func TestAMGWeaklyJoinedHub(t *testing.T) {
+	const nx, ny, foot = 120, 120, 40
+	n := nx*ny + 1
+	hub := nx * ny
+	s := newStamp(n)
+	for y := 0; y < ny; y++ {
+		for x := 0; x < nx; x++ {
+			i := y*nx + x
+			if x+1 < nx {
+				s.conductance(i, i+1, 1)
+			}
+			if y+1 < ny {
+				s.conductance(i, i+nx, 1)
+			}
+			s.ground(i, 1e-3)
+			if x >= 40 && x < 40+foot && y >= 40 && y < 40+foot {
+				s.conductance(i, hub, 0.01)
+			}
+		}
+	}
+	a := s.build()
+	amg := &AMG{}
+	if err := amg.Setup(a, -1); err != nil {
+		t.Fatal(err)
+	}
+	top := amg.levels[0]
+	longest := 0
+	for i := 0; i < n; i++ {
+		longest = max(longest, top.p.ptr[i+1]-top.p.ptr[i])
+	}
+	if got := top.p.ptr[hub+1] - top.p.ptr[hub]; got != 0 {
+		t.Errorf("the hub's row of P has %d entries, want none", got)
+	}
+	if longest > 9 {
+		t.Errorf("longest row of P %d entries, want at most 9 on a five-point grid", longest)
+	}
+	cg := &CG{iterBase{Precond: amg}}
+	if err := cg.Factorize(a); err != nil {
+		t.Fatal(err)
+	}
+	b := randVec(n, rand.New(rand.NewPCG(3, 4)))
+	x := make([]float64, n)
+	if err := cg.Solve(x, b); err != nil {
+		t.Fatal(err)
+	}
+	if it, _ := cg.Stats(); it > 25 {
+		t.Errorf("%d CG iterations, want at most 25", it)
+	}
+	if r := relResidual(a, x, b); r > DefaultTol {
+		t.Errorf("residual %.3g", r)
+	}
+	t.Logf("levels %v, longest row of P %d", amg.Levels(), longest)
 }
