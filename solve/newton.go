@@ -24,6 +24,10 @@ type Result struct {
 	Kinds []KindResult
 	// Pseudo counts the pseudo-transient steps taken.
 	Pseudo int
+	// LinearIterations counts the iterations of the linear solver over
+	// the whole solve when it iterates (conjugate gradients, say); 0 when
+	// every linear solve was direct.
+	LinearIterations int
 	// SingularAtSolution is set when the Jacobian is singular at X: some
 	// unknown has no slope there (a node whose only link is natural
 	// convection at zero temperature difference, say), so convergence
@@ -94,11 +98,11 @@ type KindResult struct {
 // forcing terms, from 1e-4 at the first step); a step taken where every
 // residual is already within tolerance, the one whose length decides
 // convergence, is solved to a relative residual of 1e-8.
-func Newton(p Problem, x0 []float64, s Settings) Result {
+func Newton(p Problem, x0 []float64, s Settings) (res Result) {
 	s = s.withDefaults()
 	n := p.Size()
 	x := append([]float64(nil), x0...)
-	res := Result{X: x, Worst: -1}
+	res = Result{X: x, Worst: -1}
 	kinds := p.Kinds()
 	kindOf := make([]int, n)
 	for i := range kindOf {
@@ -115,6 +119,7 @@ func Newton(p Problem, x0 []float64, s Settings) Result {
 		wt: make([]float64, n), step: make([]float64, n), rhs: make([]float64, n),
 		trial: make([]float64, n), d: make([]float64, n), xnow: x,
 	}
+	defer func() { res.LinearIterations = w.linear }()
 	w.jac = p.Pattern()
 	w.jact = samePattern(w.jac)
 	w.shift = samePattern(w.jac)
@@ -340,6 +345,24 @@ type work struct {
 	minShift          []float64
 	// lastShifted is set when the last step taken was pseudo-transient.
 	lastShifted bool
+	linear      int // linear solver iterations so far
+}
+
+// iterationCounter is a linear solver that iterates and tells how many
+// iterations its last solve took.
+type iterationCounter interface {
+	Stats() (iterations int, residual float64)
+}
+
+// solveLinear solves for the Newton step and counts the linear solver's
+// iterations.
+func (w *work) solveLinear() error {
+	err := w.s.Linear.Solve(w.step, w.rhs)
+	if c, ok := w.s.Linear.(iterationCounter); ok && err == nil {
+		it, _ := c.Stats()
+		w.linear += it
+	}
+	return err
 }
 
 // floor returns equation i's residual floor.
@@ -487,7 +510,7 @@ func (w *work) direction(x []float64) (bool, error) {
 	w.force(x)
 	err := w.s.Linear.Factorize(w.shift)
 	if err == nil {
-		if err = w.s.Linear.Solve(w.step, w.rhs); err != nil {
+		if err = w.solveLinear(); err != nil {
 			return false, err
 		}
 		for i := range w.step {
@@ -656,7 +679,7 @@ func (w *work) pseudoStep(x []float64) error {
 			w.rhs[i] = -w.f[i] * w.d[i]
 		}
 		if err = w.s.Linear.Factorize(w.shift); err == nil {
-			if err = w.s.Linear.Solve(w.step, w.rhs); err != nil {
+			if err = w.solveLinear(); err != nil {
 				return err
 			}
 			for i := range w.step {

@@ -23,6 +23,9 @@ type Run struct {
 	Converged  bool
 	Reason     string // the solver's stop reason
 	Iterations int    // Newton iterations
+	// LinearIterations counts the linear solver's iterations (0 when
+	// every linear solve was direct).
+	LinearIterations int
 	// Worst names the equation with the largest residual relative to its
 	// own magnitude (e.g. `heat balance of "cpu"`); Residual is its
 	// residual in WorstUnit and Scaled the ratio.

@@ -52,6 +52,9 @@ type SolverReport struct {
 	Converged  bool   `json:"converged"`
 	Reason     string `json:"reason"`
 	Iterations int    `json:"iterations"`
+	// LinearIterations counts the linear solver's iterations over the
+	// solve; 0 when every linear solve was direct.
+	LinearIterations int `json:"linear_iterations"`
 	// The equation with the largest residual relative to its own
 	// magnitude, its residual in its unit, and the ratio.
 	Worst    string           `json:"worst_equation,omitempty"`
@@ -211,7 +214,7 @@ func WriteJSON(w io.Writer, r *Report) error {
 }
 
 func solverReport(run Run) SolverReport {
-	r := SolverReport{Converged: run.Converged, Reason: run.Reason, Iterations: run.Iterations,
+	r := SolverReport{Converged: run.Converged, Reason: run.Reason, Iterations: run.Iterations, LinearIterations: run.LinearIterations,
 		Worst: run.Worst, Residual: Number(run.Residual), Unit: run.WorstUnit, Scaled: Number(run.Scaled),
 		Unknowns: []UnknownsReport{}}
 	for _, k := range run.Kinds {

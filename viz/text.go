@@ -36,6 +36,9 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 	tw.printf("%s\n", title)
 	tw.printf("model %s; ambient %.2f °C, %s\n", m.File, celsius(m.Ambient.Temperature), pressureText(m.Ambient))
 	tw.printf("solved in %d Newton iterations", run.Iterations)
+	if run.LinearIterations > 0 {
+		tw.printf(" (%d iterations of the linear solver)", run.LinearIterations)
+	}
 	if run.Worst != "" {
 		// Converged means every balance is within 1e-9 of the flows that
 		// meet in it, or within the round-off of its terms; the fraction

@@ -87,11 +87,12 @@ const SetHelp = "change a value of the model, PATH=VALUE (repeatable): ambient.t
 // the convergence of each kind of unknown the model has.
 func RunOf(p *network.Steady, res solve.Result) viz.Run {
 	r := viz.Run{
-		Converged:  res.Reason.Converged(),
-		Reason:     res.Reason.String(),
-		Iterations: res.Iterations,
-		Residual:   res.Residual,
-		Scaled:     res.Scaled,
+		Converged:        res.Reason.Converged(),
+		Reason:           res.Reason.String(),
+		Iterations:       res.Iterations,
+		LinearIterations: res.LinearIterations,
+		Residual:         res.Residual,
+		Scaled:           res.Scaled,
 	}
 	if res.Worst >= 0 && res.Worst < p.Size() {
 		r.Worst = p.EquationName(res.Worst)
