@@ -23,7 +23,7 @@ type assembly struct {
 	nvars     []int32 // per element
 	given     []bool  // per element and var (at varStart), whether the var is given
 	varStart  []int32
-	pattern   *sparse.Matrix
+	pattern   *sparse.Matrix // RowPtr and Col only
 	maxR      int
 	maxV      int
 	storing   []int // indices of elements that implement elements.Storage
@@ -43,104 +43,98 @@ func (net *Network) allElements() []elements.Element {
 }
 
 // assemble builds the Jacobian pattern over the unknowns and resolves
-// every element's positions in it.
+// every element's positions in it. Each entry whose row and var are both
+// unknowns is marked once, in element order; the builder tells where
+// every mark lands, so no position is searched for.
 func (net *Network) assemble() *assembly {
 	a := &assembly{elems: net.allElements()}
 	n := len(net.unknown)
 	b := sparse.NewBuilder(n)
+	ne := len(a.elems)
+	a.entries = make([]int, ne)
+	a.rowStart = make([]int32, ne+1)
+	a.slotStart = make([]int32, ne+1)
+	a.nvars = make([]int32, ne)
+	a.varStart = make([]int32, ne+1)
+	// Count first, so that nothing below reallocates: a meshed plate has
+	// millions of entries.
 	type block struct {
 		rows, vars []int
 		er, ev     []int32 // entries of a Patterned element
 	}
-	blocks := make([]block, len(a.elems))
-	a.entries = make([]int, len(a.elems))
-	// Count the entries first, so that nothing below reallocates: a
-	// meshed plate has millions.
-	total, nrows, nvars := 0, 0, 0
+	blocks := make([]block, ne)
+	total, marks := 0, 0
 	for e, el := range a.elems {
-		rows, vars := el.Rows(), el.Vars()
-		blocks[e] = block{rows: rows, vars: vars}
+		bl := block{rows: el.Rows(), vars: el.Vars()}
 		a.entries[e] = -1
+		k := len(bl.rows) * len(bl.vars)
 		if p, ok := el.(elements.Patterned); ok {
-			blocks[e].er, blocks[e].ev = p.Entries()
-			a.entries[e] = len(blocks[e].er)
-			total += len(blocks[e].er)
-		} else {
-			total += len(rows) * len(vars)
-		}
-		nrows += len(rows)
-		nvars += len(vars)
-	}
-	b.Grow(total)
-	a.slots = make([]int32, 0, total)
-	a.rows = make([]int32, 0, nrows)
-	a.given = make([]bool, 0, nvars)
-	for e, el := range a.elems {
-		rows, vars := blocks[e].rows, blocks[e].vars
-		if a.entries[e] >= 0 {
-			er, ev := blocks[e].er, blocks[e].ev
-			for k := range er {
-				fr, fv := net.free[rows[er[k]]], net.free[vars[ev[k]]]
-				if fr >= 0 && fv >= 0 {
-					b.Mark(fr, fv)
+			bl.er, bl.ev = p.Entries()
+			a.entries[e] = len(bl.er)
+			k = len(bl.er)
+			for i := range bl.er {
+				if net.free[bl.rows[bl.er[i]]] >= 0 && net.free[bl.vars[bl.ev[i]]] >= 0 {
+					marks++
 				}
 			}
 		} else {
-			for _, r := range rows {
-				fr := net.free[r]
-				if fr < 0 {
-					continue
-				}
-				for _, v := range vars {
-					if fv := net.free[v]; fv >= 0 {
-						b.Mark(fr, fv)
-					}
-				}
-			}
+			marks += k
 		}
-		a.maxR = max(a.maxR, len(rows))
-		a.maxV = max(a.maxV, len(vars))
+		total += k
+		a.rowStart[e+1] = a.rowStart[e] + int32(len(bl.rows))
+		a.varStart[e+1] = a.varStart[e] + int32(len(bl.vars))
+		a.slotStart[e+1] = a.slotStart[e] + int32(k)
+		a.nvars[e] = int32(len(bl.vars))
+		a.maxR = max(a.maxR, len(bl.rows))
+		a.maxV = max(a.maxV, len(bl.vars))
 		if _, ok := el.(elements.Storage); ok {
 			a.storing = append(a.storing, e)
 		}
+		blocks[e] = bl
 	}
-	a.pattern = b.Build()
-	a.rowStart = make([]int32, len(a.elems)+1)
-	a.slotStart = make([]int32, len(a.elems)+1)
-	a.nvars = make([]int32, len(a.elems))
-	a.varStart = make([]int32, len(a.elems)+1)
+	b.Grow(marks)
+	a.slots = make([]int32, total)
+	a.rows = make([]int32, a.rowStart[ne])
+	a.given = make([]bool, a.varStart[ne])
+	// Mark: slots holds each entry's mark number for now, −1 where its
+	// row or its var is given.
+	mark := func(k int, fr, fv int) {
+		if fr < 0 || fv < 0 {
+			a.slots[k] = -1
+			return
+		}
+		a.slots[k] = int32(b.Marks())
+		b.Mark(fr, fv)
+	}
 	for e, bl := range blocks {
-		a.varStart[e+1] = a.varStart[e] + int32(len(bl.vars))
-		for _, v := range bl.vars {
-			a.given = append(a.given, net.free[v] < 0)
+		for i, r := range bl.rows {
+			a.rows[int(a.rowStart[e])+i] = int32(r)
 		}
-		a.rowStart[e+1] = a.rowStart[e] + int32(len(bl.rows))
-		a.nvars[e] = int32(len(bl.vars))
-		for _, r := range bl.rows {
-			a.rows = append(a.rows, int32(r))
+		for i, v := range bl.vars {
+			a.given[int(a.varStart[e])+i] = net.free[v] < 0
 		}
-		if bl.er != nil || a.entries[e] >= 0 {
-			a.slotStart[e+1] = a.slotStart[e] + int32(len(bl.er))
-			for k := range bl.er {
-				slot := -1
-				fr, fv := net.free[bl.rows[bl.er[k]]], net.free[bl.vars[bl.ev[k]]]
-				if fr >= 0 && fv >= 0 {
-					slot = a.pattern.Index(fr, fv)
-				}
-				a.slots = append(a.slots, int32(slot))
+		k := int(a.slotStart[e])
+		if a.entries[e] >= 0 {
+			for i := range bl.er {
+				mark(k+i, net.free[bl.rows[bl.er[i]]], net.free[bl.vars[bl.ev[i]]])
 			}
-			continue
-		}
-		a.slotStart[e+1] = a.slotStart[e] + int32(len(bl.rows)*len(bl.vars))
-		for _, r := range bl.rows {
-			fr := net.free[r]
-			for _, v := range bl.vars {
-				slot := -1
-				if fv := net.free[v]; fr >= 0 && fv >= 0 {
-					slot = a.pattern.Index(fr, fv)
+		} else {
+			for _, r := range bl.rows {
+				fr := net.free[r]
+				for _, v := range bl.vars {
+					mark(k, fr, net.free[v])
+					k++
 				}
-				a.slots = append(a.slots, int32(slot))
 			}
+		}
+		blocks[e] = block{} // let a plate's lists go
+	}
+	var at []int32
+	a.pattern, at = b.BuildSlots()
+	a.pattern.Val = nil // only the pattern is kept: Steady.Pattern gives values
+	for k, m := range a.slots {
+		if m >= 0 {
+			a.slots[k] = at[m]
 		}
 	}
 	return a
