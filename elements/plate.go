@@ -412,13 +412,20 @@ func (p *Plate) placeRegion(f Face, r Rect) (region, error) {
 	if len(us) == 0 || len(vs) == 0 {
 		return region{}, fmt.Errorf("region (%g, %g)–(%g, %g) m overlaps no cell of the %s face", r.X0, r.Y0, r.X1, r.Y1, f)
 	}
-	g := region{du: r.X1 - r.X0, dv: r.Y1 - r.Y0}
+	g := region{du: r.X1 - r.X0, dv: r.Y1 - r.Y0,
+		cells: make([]int32, len(us)*len(vs)), area: make([]float64, len(us)*len(vs))}
+	// cell(u, v) is linear in u and v on every face.
+	c0 := cell(0, 0)
+	du, dv := cell(min(1, len(ue)-2), 0)-c0, cell(0, min(1, len(ve)-2))-c0
+	q := 0
 	for _, sv := range vs {
+		row := c0 + dv*sv.i
 		for _, su := range us {
 			a := su.len * sv.len
-			g.cells = append(g.cells, int32(cell(su.i, sv.i)))
-			g.area = append(g.area, a)
+			g.cells[q] = int32(row + du*su.i)
+			g.area[q] = a
 			g.total += a
+			q++
 		}
 	}
 	g.clipped = math.Max(g.du*g.dv-(u1-u0)*(v1-v0), 0)

@@ -114,13 +114,17 @@ func (p *Plate) Eval(s *State, l *Local) {
 		for i, q := range accs[w].r {
 			l.R[p.n+i] += q
 		}
-		if l.J == nil {
-			continue
-		}
-		for i, jn := range p.joins {
-			if needN[jn.pos] {
-				l.J[jn.entry+2*len(jn.cells)] += accs[w].nn[i]
+	}
+	if l.J == nil {
+		return
+	}
+	for i, jn := range p.joins {
+		if needN[jn.pos] {
+			nn := 0.0
+			for w := range accs {
+				nn += accs[w].nn[i]
 			}
+			l.E(jn.entry+2*len(jn.cells), nn)
 		}
 	}
 }
@@ -133,7 +137,7 @@ func (p *Plate) evalCells(s *State, l *Local, c0, c1 int, acc *plateAcc, needN [
 		i0 := c - line*p.NX
 		i1 := min(p.NX, i0+c1-c)
 		if l.J != nil {
-			p.lineJacobian(t, l.R, l.J, line, i0, i1)
+			p.lineJacobian(t, l, line, i0, i1)
 		} else {
 			p.lineResidual(t, l.R, line, i0, i1)
 		}
@@ -158,13 +162,13 @@ func (p *Plate) evalCells(s *State, l *Local, c0, c1 int, acc *plateAcc, needN [
 				f := g * (t[c] - tn)
 				l.R[c] -= f
 				qsum += f
+				if wantN {
+					l.E(jn.entry+2*q, g)
+					l.E(jn.entry+2*q+1, g)
+					nn -= g
+				}
 				if l.J != nil {
-					l.J[diag.at(c)] -= g
-					l.J[jn.entry+2*q+1] += g
-					if wantN {
-						l.J[jn.entry+2*q] += g
-						nn -= g
-					}
+					l.E(diag.at(c), -g)
 				}
 			}
 		case joinRadiation:
@@ -180,13 +184,13 @@ func (p *Plate) evalCells(s *State, l *Local, c0, c1 int, acc *plateAcc, needN [
 				qsum += f
 				if l.J != nil {
 					dc := 4 * sh * tc3
-					l.J[diag.at(c)] -= dc
-					l.J[jn.entry+2*q+1] += dc
 					if wantN {
 						dn := 4 * sh * tn3
-						l.J[jn.entry+2*q] += dn
+						l.E(jn.entry+2*q, dn)
+						l.E(jn.entry+2*q+1, dc)
 						nn -= dn
 					}
+					l.E(diag.at(c), -dc)
 				}
 			}
 		}
@@ -269,8 +273,9 @@ func (p *Plate) lineResidual(t, r []float64, line, i0, i1 int) {
 }
 
 // lineJacobian adds the conduction into cells i0 ≤ i < i1 of a line and
-// writes its derivatives to their entries.
-func (p *Plate) lineJacobian(t, r, jac []float64, line, i0, i1 int) {
+// its derivatives.
+func (p *Plate) lineJacobian(t []float64, l *Local, line, i0, i1 int) {
+	r := l.R
 	base, gx, gym, gyp, gzm, gzp := p.lineGeometry(line)
 	nx, nxy := p.NX, p.NX*p.NY
 	e := 1
@@ -289,41 +294,41 @@ func (p *Plate) lineJacobian(t, r, jac []float64, line, i0, i1 int) {
 		if i > 0 {
 			q += gx * (t[c-1] - tc)
 			g += gx
-			jac[at] = gx
+			l.E(at, gx)
 			at++
 		}
 		if i < nx-1 {
 			q += gx * (t[c+1] - tc)
 			g += gx
-			jac[at] = gx
+			l.E(at, gx)
 			at++
 		}
 		if gym > 0 {
 			q += gym * (t[c-nx] - tc)
 			g += gym
-			jac[at] = gym
+			l.E(at, gym)
 			at++
 		}
 		if gyp > 0 {
 			q += gyp * (t[c+nx] - tc)
 			g += gyp
-			jac[at] = gyp
+			l.E(at, gyp)
 			at++
 		}
 		if gzm > 0 {
 			q += gzm * (t[c-nxy] - tc)
 			g += gzm
-			jac[at] = gzm
+			l.E(at, gzm)
 			at++
 		}
 		if gzp > 0 {
 			q += gzp * (t[c+nxy] - tc)
 			g += gzp
-			jac[at] = gzp
+			l.E(at, gzp)
 			at++
 		}
 		r[c] += q
-		jac[d] -= g
+		l.E(d, -g)
 	}
 }
 
@@ -348,7 +353,7 @@ func (p *Plate) Stored(s *State, l *Local) {
 		}
 		e := p.perCell(j, k)
 		for i := range p.NX {
-			l.J[p.lineStart[line]+p.inLine(i, e)] += cp
+			l.E(p.lineStart[line]+p.inLine(i, e), cp)
 		}
 	}
 }

@@ -141,10 +141,13 @@ func (net *Network) assemble() *assembly {
 }
 
 // evaluator evaluates an assembly into per-variable sums; each Problem has
-// its own, so that several may run at once.
+// its own, so that several may run at once. A Patterned element adds its
+// derivatives straight into the Jacobian through its slots (local); every
+// other element fills a dense block (dense) that is scattered after it.
 type evaluator struct {
 	a     *assembly
 	local elements.Local
+	dense elements.Local
 }
 
 // eval evaluates every element at s: flow into each variable's equation
@@ -160,12 +163,10 @@ func (ev *evaluator) eval(s *elements.State, sum, mag []float64, jac *sparse.Mat
 		jac.Zero()
 	}
 	a := ev.a
-	l := &ev.local
 	for e, el := range a.elems {
-		a.reset(l, e, jac != nil)
-		l.Given = a.given[a.varStart[e]:a.varStart[e+1]]
+		l := ev.reset(e, jac)
 		el.Eval(s, l)
-		ev.scatter(e, sum, mag, jac)
+		ev.scatter(e, l, sum, mag, jac)
 	}
 }
 
@@ -177,29 +178,38 @@ func (ev *evaluator) stored(s *elements.State, sum []float64, jac *sparse.Matrix
 		jac.Zero()
 	}
 	a := ev.a
-	l := &ev.local
 	for _, e := range a.storing {
-		a.reset(l, e, jac != nil)
-		l.Given = a.given[a.varStart[e]:a.varStart[e+1]]
+		l := ev.reset(e, jac)
 		a.elems[e].(elements.Storage).Stored(s, l)
-		ev.scatter(e, sum, nil, jac)
+		ev.scatter(e, l, sum, nil, jac)
 	}
 }
 
-// reset sizes and zeroes l for element e.
-func (a *assembly) reset(l *elements.Local, e int, jac bool) {
-	nr, nv := int(a.rowStart[e+1]-a.rowStart[e]), int(a.nvars[e])
-	if ne := a.entries[e]; ne >= 0 {
-		l.ResetEntries(nr, nv, ne, jac)
-		return
-	}
-	l.Reset(nr, nv, jac)
-}
-
-// scatter adds element e's local values into the sums and the Jacobian.
-func (ev *evaluator) scatter(e int, sum, mag []float64, jac *sparse.Matrix) {
+// reset sizes and zeroes the Local for element e and returns it: for a
+// Patterned element, with jac's values and the element's slots when
+// derivatives are wanted.
+func (ev *evaluator) reset(e int, jac *sparse.Matrix) *elements.Local {
 	a := ev.a
-	l := &ev.local
+	nr, nv := int(a.rowStart[e+1]-a.rowStart[e]), int(a.nvars[e])
+	var l *elements.Local
+	if a.entries[e] >= 0 {
+		l = &ev.local
+		l.ResetEntries(nr, nv, 0, false)
+		if jac != nil {
+			l.J, l.Slot = jac.Val, a.slots[a.slotStart[e]:a.slotStart[e+1]]
+		}
+	} else {
+		l = &ev.dense
+		l.Reset(nr, nv, jac != nil)
+	}
+	l.Given = a.given[a.varStart[e]:a.varStart[e+1]]
+	return l
+}
+
+// scatter adds element e's local values into the sums and, unless the
+// element wrote them there itself, the Jacobian.
+func (ev *evaluator) scatter(e int, l *elements.Local, sum, mag []float64, jac *sparse.Matrix) {
+	a := ev.a
 	r0 := a.rowStart[e]
 	for k, r := range a.rows[r0:a.rowStart[e+1]] {
 		sum[r] += l.R[k]
@@ -207,7 +217,7 @@ func (ev *evaluator) scatter(e int, sum, mag []float64, jac *sparse.Matrix) {
 			mag[r] += math.Abs(l.R[k])
 		}
 	}
-	if jac != nil {
+	if jac != nil && l.Slot == nil {
 		for k, slot := range a.slots[a.slotStart[e]:a.slotStart[e+1]] {
 			if slot >= 0 {
 				jac.Val[slot] += l.J[k]
