@@ -71,6 +71,14 @@ type Patterned interface {
 	Entries() (er, ev []int32)
 }
 
+// EntryLister is implemented by Patterned elements that can list their
+// entries without storing them (a meshed plate has tens of millions):
+// EachEntry calls put with ER[k] and EV[k] of every entry k, in order, the
+// same as Entries returns.
+type EntryLister interface {
+	EachEntry(put func(r, v int32))
+}
+
 // Local is an element's private view of the residual and the Jacobian:
 // R[r] for its rows and a dense block of derivatives, rows by vars (or,
 // for a Patterned element, one value per entry).

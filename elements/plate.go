@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"math"
 	"sort"
-	"sync"
 )
 
 // PlateLayer is one layer of a meshed plate, bottom to top: a board's
@@ -119,14 +118,6 @@ type Plate struct {
 	joins     []plateJoin
 	lineStart []int // first entry of each line of cells (j, k), and the total of the cell entries last
 	nEntries  int
-
-	entries *plateEntries // built on first use
-}
-
-// plateEntries holds a plate's Jacobian entries, built once.
-type plateEntries struct {
-	once   sync.Once
-	er, ev []int32
 }
 
 // joinKind is how a join moves heat.
@@ -257,7 +248,6 @@ func (p *Plate) prepare() error {
 		}
 	}
 	p.nEntries = p.lineStart[len(p.lineStart)-1]
-	p.entries = &plateEntries{}
 	p.nodes = nil
 	p.joins = make([]plateJoin, len(p.Joins))
 	for i, jn := range p.Joins {
@@ -677,10 +667,14 @@ func (p *Plate) radiationWarning(i int, hottest float64) string {
 		return ""
 	}
 	hr := 4 * jn.Emissivity * StefanBoltzmann * hottest * hottest * hottest
-	worst := 0.0
+	// The half-cell depends on the cell's layer alone: the cells run in
+	// increasing order, so each layer is worked out once.
+	worst, nxy, last := 0.0, p.NX*p.NY, -1
 	for _, c := range pj.cells {
-		a := 1.0
-		worst = math.Max(worst, hr*a/p.halfCell(jn.Face, int(c), a))
+		if k := int(c) / nxy; k != last {
+			last = k
+			worst = math.Max(worst, hr/p.halfCell(jn.Face, int(c), 1))
+		}
 	}
 	if worst <= 0.05 {
 		return ""

@@ -14,26 +14,28 @@ import (
 // diagonal.
 
 // Entries returns the positions of the plate's Jacobian entries in Rows
-// and Vars. They are built once.
+// and Vars, built anew at each call (EachEntry lists them without storing
+// them).
 func (p *Plate) Entries() (er, ev []int32) {
-	e := p.entries
-	e.once.Do(func() { e.er, e.ev = p.buildEntries() })
-	return e.er, e.ev
-}
-
-func (p *Plate) buildEntries() (er, ev []int32) {
 	er = make([]int32, p.nEntries)
 	ev = make([]int32, p.nEntries)
-	nx, nxy := p.NX, p.NX*p.NY
-	e := 0
-	put := func(r, v int) {
-		er[e], ev[e] = int32(r), int32(v)
-		e++
-	}
-	for k := range p.nz {
-		for j := range p.NY {
+	k := 0
+	p.EachEntry(func(r, v int32) {
+		er[k], ev[k] = r, v
+		k++
+	})
+	return er, ev
+}
+
+// EachEntry calls put with the row and var of each of the plate's
+// Jacobian entries, in order.
+func (p *Plate) EachEntry(put func(r, v int32)) {
+	nx, ny, nxy := int32(p.NX), int32(p.NY), int32(p.NX*p.NY)
+	nz := int32(p.nz)
+	c := int32(0)
+	for k := range nz {
+		for j := range ny {
 			for i := range nx {
-				c := i + nx*(j+p.NY*k)
 				put(c, c)
 				if i > 0 {
 					put(c, c-1)
@@ -44,27 +46,27 @@ func (p *Plate) buildEntries() (er, ev []int32) {
 				if j > 0 {
 					put(c, c-nx)
 				}
-				if j < p.NY-1 {
+				if j < ny-1 {
 					put(c, c+nx)
 				}
 				if k > 0 {
 					put(c, c-nxy)
 				}
-				if k < p.nz-1 {
+				if k < nz-1 {
 					put(c, c+nxy)
 				}
+				c++
 			}
 		}
 	}
 	for _, jn := range p.joins {
-		node := p.n + jn.pos
+		node := int32(p.n + jn.pos)
 		for _, c := range jn.cells {
-			put(int(c), node)
-			put(node, int(c))
+			put(c, node)
+			put(node, c)
 		}
 		put(node, node)
 	}
-	return er, ev
 }
 
 // parallelCells is the number of cells above which Eval splits the cells

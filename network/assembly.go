@@ -60,7 +60,7 @@ func (net *Network) assemble() *assembly {
 	// millions of entries.
 	type block struct {
 		rows, vars []int
-		er, ev     []int32 // entries of a Patterned element
+		er, ev     []int32 // entries of a Patterned element that does not list them
 	}
 	blocks := make([]block, ne)
 	total, marks := 0, 0
@@ -69,14 +69,22 @@ func (net *Network) assemble() *assembly {
 		a.entries[e] = -1
 		k := len(bl.rows) * len(bl.vars)
 		if p, ok := el.(elements.Patterned); ok {
-			bl.er, bl.ev = p.Entries()
-			a.entries[e] = len(bl.er)
-			k = len(bl.er)
-			for i := range bl.er {
-				if net.free[bl.rows[bl.er[i]]] >= 0 && net.free[bl.vars[bl.ev[i]]] >= 0 {
+			k = 0
+			count := func(r, v int32) {
+				if net.free[bl.rows[r]] >= 0 && net.free[bl.vars[v]] >= 0 {
 					marks++
 				}
+				k++
 			}
+			if w, ok := el.(elements.EntryLister); ok {
+				w.EachEntry(count)
+			} else {
+				bl.er, bl.ev = p.Entries()
+				for i := range bl.er {
+					count(bl.er[i], bl.ev[i])
+				}
+			}
+			a.entries[e] = k
 		} else {
 			marks += k
 		}
@@ -115,8 +123,16 @@ func (net *Network) assemble() *assembly {
 		}
 		k := int(a.slotStart[e])
 		if a.entries[e] >= 0 {
-			for i := range bl.er {
-				mark(k+i, net.free[bl.rows[bl.er[i]]], net.free[bl.vars[bl.ev[i]]])
+			put := func(r, v int32) {
+				mark(k, net.free[bl.rows[r]], net.free[bl.vars[v]])
+				k++
+			}
+			if w, ok := a.elems[e].(elements.EntryLister); ok {
+				w.EachEntry(put)
+			} else {
+				for i := range bl.er {
+					put(bl.er[i], bl.ev[i])
+				}
 			}
 		} else {
 			for _, r := range bl.rows {
