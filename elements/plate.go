@@ -74,6 +74,11 @@ type PlateJoin struct {
 	// black-body surroundings: q = ε·σ·A·(T⁴ − T_n⁴) (Incropera et al.,
 	// Fundamentals of Heat and Mass Transfer, eq. 1.7).
 	Emissivity float64
+	// NodeGiven tells that the node's temperature is given (ambient, a
+	// fixed node): the join then has no Jacobian entries of its own, as
+	// neither the node's column nor its row would be used; what it adds
+	// to its cells' diagonals stays.
+	NodeGiven bool
 }
 
 // Plate is a plate or block meshed into NX × NY × NZ cells as one element:
@@ -140,7 +145,7 @@ type plateJoin struct {
 	area    float64 // the region's area on the plate, m²
 	clipped float64 // area of the region off the face, m²
 	du, dv  float64 // the region's extent on the face, m
-	entry   int     // first of its entries: (cell, node), (node, cell) per cell, then (node, node)
+	entry   int     // first of its entries: (cell, node), (node, cell) per cell, then (node, node); −1 for none (NodeGiven)
 	// given is the sum of a linear join's own conductances, before the
 	// half-cells in series: PerArea × area, or Total, W/K.
 	given float64
@@ -259,10 +264,13 @@ func (p *Plate) prepare() error {
 			}
 			return fmt.Errorf("join %d (%s): %w", i+1, name, err)
 		}
-		pj.entry = p.nEntries
-		p.nEntries += 2*len(pj.cells) + 1
-		if p.nEntries > maxPlateEntries {
-			return fmt.Errorf("joins: too many Jacobian entries")
+		pj.entry = -1
+		if !jn.NodeGiven {
+			pj.entry = p.nEntries
+			p.nEntries += 2*len(pj.cells) + 1
+			if p.nEntries > maxPlateEntries {
+				return fmt.Errorf("joins: too many Jacobian entries")
+			}
 		}
 		p.joins[i] = pj
 	}

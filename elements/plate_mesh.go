@@ -9,9 +9,9 @@ import (
 // The Jacobian entries of a plate, in order: for each cell, line by line
 // (a line is the NX cells of one j and k), its diagonal, then its
 // neighbours at i−1, i+1, j−1, j+1, k−1, k+1 where they exist; then for
-// each join, (cell, node) and (node, cell) for each covered cell and one
-// (node, node). A join's (cell, cell) derivative adds to the cell's
-// diagonal.
+// each join whose node is not given (NodeGiven), (cell, node) and (node,
+// cell) for each covered cell and one (node, node). A join's (cell, cell)
+// derivative adds to the cell's diagonal.
 
 // Entries returns the positions of the plate's Jacobian entries in Rows
 // and Vars, built anew at each call (EachEntry lists them without storing
@@ -60,6 +60,9 @@ func (p *Plate) EachEntry(put func(r, v int32)) {
 		}
 	}
 	for _, jn := range p.joins {
+		if jn.entry < 0 {
+			continue
+		}
 		node := int32(p.n + jn.pos)
 		for _, c := range jn.cells {
 			put(c, node)
@@ -121,7 +124,7 @@ func (p *Plate) Eval(s *State, l *Local) {
 		return
 	}
 	for i, jn := range p.joins {
-		if needN[jn.pos] {
+		if needN[jn.pos] && jn.entry >= 0 {
 			nn := 0.0
 			for w := range accs {
 				nn += accs[w].nn[i]
@@ -153,7 +156,7 @@ func (p *Plate) evalCells(s *State, l *Local, c0, c1 int, acc *plateAcc, needN [
 			continue
 		}
 		tn := s.X[jn.node]
-		wantN := l.J != nil && needN[jn.pos]
+		wantN := l.J != nil && needN[jn.pos] && jn.entry >= 0
 		qsum, nn := 0.0, 0.0
 		diag := diagCursor{p: p, end: -1}
 		switch jn.kind {

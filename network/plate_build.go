@@ -78,7 +78,8 @@ func (net *Network) buildPlates(m *Model) Problems {
 		}
 		for _, f := range s.Faces {
 			face, _ := elements.ParseFace(f.Face)
-			j := elements.PlateJoin{Face: face, Node: net.Index[f.To]}
+			node := net.Index[f.To]
+			j := elements.PlateJoin{Face: face, Node: node, NodeGiven: net.Vars[node].Given}
 			if f.HasRegion {
 				j.Region = elements.Rect{X0: f.Region[0], Y0: f.Region[1], X1: f.Region[2], Y1: f.Region[3]}
 			}
@@ -99,7 +100,7 @@ func (net *Network) buildPlates(m *Model) Problems {
 				addJoin(j, "conductance")
 			}
 			if f.Emiss > 0 {
-				r := elements.PlateJoin{Face: face, Region: j.Region, Node: j.Node, Emissivity: f.Emiss, Name: name("radiation")}
+				r := elements.PlateJoin{Face: face, Region: j.Region, Node: j.Node, NodeGiven: j.NodeGiven, Emissivity: f.Emiss, Name: name("radiation")}
 				addJoin(r, "radiation")
 			}
 		}
