@@ -59,13 +59,24 @@ type Element interface {
 // Patterned is implemented by elements with many rows whose derivatives
 // are sparse, such as a meshed plate of a million cells: instead of the
 // dense block of rows × vars, the element names its Jacobian entries once,
-// and Eval (and Stored, for a Storage) writes the derivative of entry k to
-// l.J[k] directly. Entry k is row ER[k] of Rows, var EV[k] of Vars;
-// several entries may name the same position, and their values add up.
+// and Eval (and Stored, for a Storage) adds the derivative of entry k
+// with l.E(k, d), never by writing l.J itself. Entry k is row ER[k] of
+// Rows, var EV[k] of Vars; several entries may name the same position, and
+// their values add up. With l.Slot set, E adds straight into the whole
+// Jacobian; entries of different rows may then be added from different
+// goroutines, entries of one row only from one at a time.
 type Patterned interface {
 	Element
 	// Entries returns the positions of the entries, in Rows and Vars.
 	Entries() (er, ev []int32)
+}
+
+// EntryLister is implemented by Patterned elements that can list their
+// entries without storing them (a meshed plate has tens of millions):
+// EachEntry calls put with ER[k] and EV[k] of every entry k, in order, the
+// same as Entries returns.
+type EntryLister interface {
+	EachEntry(put func(r, v int32))
 }
 
 // Local is an element's private view of the residual and the Jacobian:
@@ -77,8 +88,26 @@ type Local struct {
 	NV int       // number of vars
 	// Given, when not nil, marks the vars that are given rather than
 	// unknown: their derivatives are not used, and an element may skip
-	// the work of computing them.
+	// the work of computing them. The equation paired with a given var is
+	// not solved either, so an element whose Rows and Vars are the same
+	// variables may skip the derivatives of that row too.
 	Given []bool
+	// Slot, when not nil, sends a Patterned element's derivatives
+	// straight into a Jacobian whose values are J (shared with the other
+	// elements, and not zeroed for this one): entry k adds to
+	// J[Slot[k]], or nowhere when Slot[k] < 0.
+	Slot []int32
+}
+
+// E adds d to the derivative of a Patterned element's entry k.
+func (l *Local) E(k int, d float64) {
+	if l.Slot == nil {
+		l.J[k] += d
+		return
+	}
+	if s := l.Slot[k]; s >= 0 {
+		l.J[s] += d
+	}
 }
 
 // NewPatternedLocal returns a Local for a Patterned element of nr rows, nv
@@ -101,6 +130,7 @@ func (l *Local) ResetEntries(nr, nv, ne int, jac bool) {
 	clear(l.R)
 	l.NV = nv
 	l.Given = nil
+	l.Slot = nil
 	if !jac {
 		l.J = nil
 		return

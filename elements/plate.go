@@ -4,7 +4,6 @@ import (
 	"fmt"
 	"math"
 	"sort"
-	"sync"
 )
 
 // PlateLayer is one layer of a meshed plate, bottom to top: a board's
@@ -87,6 +86,11 @@ type PlateJoin struct {
 	// black-body surroundings: q = ε·σ·A·(T⁴ − T_n⁴) (Incropera et al.,
 	// Fundamentals of Heat and Mass Transfer, eq. 1.7).
 	Emissivity float64
+	// NodeGiven tells that the node's temperature is given (ambient, a
+	// fixed node): the join then has no Jacobian entries of its own, as
+	// neither the node's column nor its row would be used; what it adds
+	// to its cells' diagonals stays.
+	NodeGiven bool
 }
 
 // Plate is a plate or block meshed into NX × NY × NZ cells as one element:
@@ -131,14 +135,6 @@ type Plate struct {
 	joins     []plateJoin
 	lineStart []int // first entry of each line of cells (j, k), and the total of the cell entries last
 	nEntries  int
-
-	entries *plateEntries // built on first use
-}
-
-// plateEntries holds a plate's Jacobian entries, built once.
-type plateEntries struct {
-	once   sync.Once
-	er, ev []int32
 }
 
 // joinKind is how a join moves heat.
@@ -161,7 +157,7 @@ type plateJoin struct {
 	area    float64 // the region's area on the plate, m²
 	clipped float64 // area of the region off the face, m²
 	du, dv  float64 // the region's extent on the face, m
-	entry   int     // first of its entries: (cell, node), (node, cell) per cell, then (node, node)
+	entry   int     // first of its entries: (cell, node), (node, cell) per cell, then (node, node); −1 for none (NodeGiven)
 	// given is the sum of a linear join's own conductances, before the
 	// half-cells in series: PerArea × area, or Total, W/K.
 	given float64
@@ -269,7 +265,6 @@ func (p *Plate) prepare() error {
 		}
 	}
 	p.nEntries = p.lineStart[len(p.lineStart)-1]
-	p.entries = &plateEntries{}
 	p.nodes = nil
 	p.joins = make([]plateJoin, len(p.Joins))
 	for i, jn := range p.Joins {
@@ -281,10 +276,13 @@ func (p *Plate) prepare() error {
 			}
 			return fmt.Errorf("join %d (%s): %w", i+1, name, err)
 		}
-		pj.entry = p.nEntries
-		p.nEntries += 2*len(pj.cells) + 1
-		if p.nEntries > maxPlateEntries {
-			return fmt.Errorf("joins: too many Jacobian entries")
+		pj.entry = -1
+		if !jn.NodeGiven {
+			pj.entry = p.nEntries
+			p.nEntries += 2*len(pj.cells) + 1
+			if p.nEntries > maxPlateEntries {
+				return fmt.Errorf("joins: too many Jacobian entries")
+			}
 		}
 		p.joins[i] = pj
 	}
@@ -424,13 +422,20 @@ func (p *Plate) placeRegion(f Face, r Rect) (region, error) {
 	if len(us) == 0 || len(vs) == 0 {
 		return region{}, fmt.Errorf("region (%g, %g)–(%g, %g) m overlaps no cell of the %s face", r.X0, r.Y0, r.X1, r.Y1, f)
 	}
-	g := region{du: r.X1 - r.X0, dv: r.Y1 - r.Y0}
+	g := region{du: r.X1 - r.X0, dv: r.Y1 - r.Y0,
+		cells: make([]int32, len(us)*len(vs)), area: make([]float64, len(us)*len(vs))}
+	// cell(u, v) is linear in u and v on every face.
+	c0 := cell(0, 0)
+	du, dv := cell(min(1, len(ue)-2), 0)-c0, cell(0, min(1, len(ve)-2))-c0
+	q := 0
 	for _, sv := range vs {
+		row := c0 + dv*sv.i
 		for _, su := range us {
 			a := su.len * sv.len
-			g.cells = append(g.cells, int32(cell(su.i, sv.i)))
-			g.area = append(g.area, a)
+			g.cells[q] = int32(row + du*su.i)
+			g.area[q] = a
 			g.total += a
+			q++
 		}
 	}
 	g.clipped = math.Max(g.du*g.dv-(u1-u0)*(v1-v0), 0)
@@ -686,10 +691,14 @@ func (p *Plate) radiationWarning(i int, hottest float64) string {
 		return ""
 	}
 	hr := 4 * jn.Emissivity * StefanBoltzmann * hottest * hottest * hottest
-	worst := 0.0
+	// The half-cell depends on the cell's layer alone: the cells run in
+	// increasing order, so each layer is worked out once.
+	worst, nxy, last := 0.0, p.NX*p.NY, -1
 	for _, c := range pj.cells {
-		a := 1.0
-		worst = math.Max(worst, hr*a/p.halfCell(jn.Face, int(c), a))
+		if k := int(c) / nxy; k != last {
+			last = k
+			worst = math.Max(worst, hr/p.halfCell(jn.Face, int(c), 1))
+		}
 	}
 	if worst <= 0.05 {
 		return ""

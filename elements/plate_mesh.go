@@ -9,31 +9,33 @@ import (
 // The Jacobian entries of a plate, in order: for each cell, line by line
 // (a line is the NX cells of one j and k), its diagonal, then its
 // neighbours at i−1, i+1, j−1, j+1, k−1, k+1 where they exist; then for
-// each join, (cell, node) and (node, cell) for each covered cell and one
-// (node, node). A join's (cell, cell) derivative adds to the cell's
-// diagonal.
+// each join whose node is not given (NodeGiven), (cell, node) and (node,
+// cell) for each covered cell and one (node, node). A join's (cell, cell)
+// derivative adds to the cell's diagonal.
 
 // Entries returns the positions of the plate's Jacobian entries in Rows
-// and Vars. They are built once.
+// and Vars, built anew at each call (EachEntry lists them without storing
+// them).
 func (p *Plate) Entries() (er, ev []int32) {
-	e := p.entries
-	e.once.Do(func() { e.er, e.ev = p.buildEntries() })
-	return e.er, e.ev
-}
-
-func (p *Plate) buildEntries() (er, ev []int32) {
 	er = make([]int32, p.nEntries)
 	ev = make([]int32, p.nEntries)
-	nx, nxy := p.NX, p.NX*p.NY
-	e := 0
-	put := func(r, v int) {
-		er[e], ev[e] = int32(r), int32(v)
-		e++
-	}
-	for k := range p.nz {
-		for j := range p.NY {
+	k := 0
+	p.EachEntry(func(r, v int32) {
+		er[k], ev[k] = r, v
+		k++
+	})
+	return er, ev
+}
+
+// EachEntry calls put with the row and var of each of the plate's
+// Jacobian entries, in order.
+func (p *Plate) EachEntry(put func(r, v int32)) {
+	nx, ny, nxy := int32(p.NX), int32(p.NY), int32(p.NX*p.NY)
+	nz := int32(p.nz)
+	c := int32(0)
+	for k := range nz {
+		for j := range ny {
 			for i := range nx {
-				c := i + nx*(j+p.NY*k)
 				put(c, c)
 				if i > 0 {
 					put(c, c-1)
@@ -44,27 +46,30 @@ func (p *Plate) buildEntries() (er, ev []int32) {
 				if j > 0 {
 					put(c, c-nx)
 				}
-				if j < p.NY-1 {
+				if j < ny-1 {
 					put(c, c+nx)
 				}
 				if k > 0 {
 					put(c, c-nxy)
 				}
-				if k < p.nz-1 {
+				if k < nz-1 {
 					put(c, c+nxy)
 				}
+				c++
 			}
 		}
 	}
 	for _, jn := range p.joins {
-		node := p.n + jn.pos
+		if jn.entry < 0 {
+			continue
+		}
+		node := int32(p.n + jn.pos)
 		for _, c := range jn.cells {
-			put(int(c), node)
-			put(node, int(c))
+			put(c, node)
+			put(node, c)
 		}
 		put(node, node)
 	}
-	return er, ev
 }
 
 // parallelCells is the number of cells above which Eval splits the cells
@@ -114,13 +119,17 @@ func (p *Plate) Eval(s *State, l *Local) {
 		for i, q := range accs[w].r {
 			l.R[p.n+i] += q
 		}
-		if l.J == nil {
-			continue
-		}
-		for i, jn := range p.joins {
-			if needN[jn.pos] {
-				l.J[jn.entry+2*len(jn.cells)] += accs[w].nn[i]
+	}
+	if l.J == nil {
+		return
+	}
+	for i, jn := range p.joins {
+		if needN[jn.pos] && jn.entry >= 0 {
+			nn := 0.0
+			for w := range accs {
+				nn += accs[w].nn[i]
 			}
+			l.E(jn.entry+2*len(jn.cells), nn)
 		}
 	}
 }
@@ -133,7 +142,7 @@ func (p *Plate) evalCells(s *State, l *Local, c0, c1 int, acc *plateAcc, needN [
 		i0 := c - line*p.NX
 		i1 := min(p.NX, i0+c1-c)
 		if l.J != nil {
-			p.lineJacobian(t, l.R, l.J, line, i0, i1)
+			p.lineJacobian(t, l, line, i0, i1)
 		} else {
 			p.lineResidual(t, l.R, line, i0, i1)
 		}
@@ -147,7 +156,7 @@ func (p *Plate) evalCells(s *State, l *Local, c0, c1 int, acc *plateAcc, needN [
 			continue
 		}
 		tn := s.X[jn.node]
-		wantN := l.J != nil && needN[jn.pos]
+		wantN := l.J != nil && needN[jn.pos] && jn.entry >= 0
 		qsum, nn := 0.0, 0.0
 		diag := diagCursor{p: p, end: -1}
 		switch jn.kind {
@@ -158,13 +167,13 @@ func (p *Plate) evalCells(s *State, l *Local, c0, c1 int, acc *plateAcc, needN [
 				f := g * (t[c] - tn)
 				l.R[c] -= f
 				qsum += f
+				if wantN {
+					l.E(jn.entry+2*q, g)
+					l.E(jn.entry+2*q+1, g)
+					nn -= g
+				}
 				if l.J != nil {
-					l.J[diag.at(c)] -= g
-					l.J[jn.entry+2*q+1] += g
-					if wantN {
-						l.J[jn.entry+2*q] += g
-						nn -= g
-					}
+					l.E(diag.at(c), -g)
 				}
 			}
 		case joinRadiation:
@@ -180,13 +189,13 @@ func (p *Plate) evalCells(s *State, l *Local, c0, c1 int, acc *plateAcc, needN [
 				qsum += f
 				if l.J != nil {
 					dc := 4 * sh * tc3
-					l.J[diag.at(c)] -= dc
-					l.J[jn.entry+2*q+1] += dc
 					if wantN {
 						dn := 4 * sh * tn3
-						l.J[jn.entry+2*q] += dn
+						l.E(jn.entry+2*q, dn)
+						l.E(jn.entry+2*q+1, dc)
 						nn -= dn
 					}
+					l.E(diag.at(c), -dc)
 				}
 			}
 		}
@@ -269,8 +278,9 @@ func (p *Plate) lineResidual(t, r []float64, line, i0, i1 int) {
 }
 
 // lineJacobian adds the conduction into cells i0 ≤ i < i1 of a line and
-// writes its derivatives to their entries.
-func (p *Plate) lineJacobian(t, r, jac []float64, line, i0, i1 int) {
+// its derivatives.
+func (p *Plate) lineJacobian(t []float64, l *Local, line, i0, i1 int) {
+	r := l.R
 	base, gx, gym, gyp, gzm, gzp := p.lineGeometry(line)
 	nx, nxy := p.NX, p.NX*p.NY
 	e := 1
@@ -289,41 +299,41 @@ func (p *Plate) lineJacobian(t, r, jac []float64, line, i0, i1 int) {
 		if i > 0 {
 			q += gx * (t[c-1] - tc)
 			g += gx
-			jac[at] = gx
+			l.E(at, gx)
 			at++
 		}
 		if i < nx-1 {
 			q += gx * (t[c+1] - tc)
 			g += gx
-			jac[at] = gx
+			l.E(at, gx)
 			at++
 		}
 		if gym > 0 {
 			q += gym * (t[c-nx] - tc)
 			g += gym
-			jac[at] = gym
+			l.E(at, gym)
 			at++
 		}
 		if gyp > 0 {
 			q += gyp * (t[c+nx] - tc)
 			g += gyp
-			jac[at] = gyp
+			l.E(at, gyp)
 			at++
 		}
 		if gzm > 0 {
 			q += gzm * (t[c-nxy] - tc)
 			g += gzm
-			jac[at] = gzm
+			l.E(at, gzm)
 			at++
 		}
 		if gzp > 0 {
 			q += gzp * (t[c+nxy] - tc)
 			g += gzp
-			jac[at] = gzp
+			l.E(at, gzp)
 			at++
 		}
 		r[c] += q
-		jac[d] -= g
+		l.E(d, -g)
 	}
 }
 
@@ -348,7 +358,7 @@ func (p *Plate) Stored(s *State, l *Local) {
 		}
 		e := p.perCell(j, k)
 		for i := range p.NX {
-			l.J[p.lineStart[line]+p.inLine(i, e)] += cp
+			l.E(p.lineStart[line]+p.inLine(i, e), cp)
 		}
 	}
 }

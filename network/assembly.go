@@ -23,7 +23,7 @@ type assembly struct {
 	nvars     []int32 // per element
 	given     []bool  // per element and var (at varStart), whether the var is given
 	varStart  []int32
-	pattern   *sparse.Matrix
+	pattern   *sparse.Matrix // RowPtr and Col only
 	maxR      int
 	maxV      int
 	storing   []int // indices of elements that implement elements.Storage
@@ -43,114 +43,127 @@ func (net *Network) allElements() []elements.Element {
 }
 
 // assemble builds the Jacobian pattern over the unknowns and resolves
-// every element's positions in it.
+// every element's positions in it. Each entry whose row and var are both
+// unknowns is marked once, in element order; the builder tells where
+// every mark lands, so no position is searched for.
 func (net *Network) assemble() *assembly {
 	a := &assembly{elems: net.allElements()}
 	n := len(net.unknown)
 	b := sparse.NewBuilder(n)
+	ne := len(a.elems)
+	a.entries = make([]int, ne)
+	a.rowStart = make([]int32, ne+1)
+	a.slotStart = make([]int32, ne+1)
+	a.nvars = make([]int32, ne)
+	a.varStart = make([]int32, ne+1)
+	// Count first, so that nothing below reallocates: a meshed plate has
+	// millions of entries.
 	type block struct {
 		rows, vars []int
-		er, ev     []int32 // entries of a Patterned element
+		er, ev     []int32 // entries of a Patterned element that does not list them
 	}
-	blocks := make([]block, len(a.elems))
-	a.entries = make([]int, len(a.elems))
-	// Count the entries first, so that nothing below reallocates: a
-	// meshed plate has millions.
-	total, nrows, nvars := 0, 0, 0
+	blocks := make([]block, ne)
+	total, marks := 0, 0
 	for e, el := range a.elems {
-		rows, vars := el.Rows(), el.Vars()
-		blocks[e] = block{rows: rows, vars: vars}
+		bl := block{rows: el.Rows(), vars: el.Vars()}
 		a.entries[e] = -1
+		k := len(bl.rows) * len(bl.vars)
 		if p, ok := el.(elements.Patterned); ok {
-			blocks[e].er, blocks[e].ev = p.Entries()
-			a.entries[e] = len(blocks[e].er)
-			total += len(blocks[e].er)
-		} else {
-			total += len(rows) * len(vars)
-		}
-		nrows += len(rows)
-		nvars += len(vars)
-	}
-	b.Grow(total)
-	a.slots = make([]int32, 0, total)
-	a.rows = make([]int32, 0, nrows)
-	a.given = make([]bool, 0, nvars)
-	for e, el := range a.elems {
-		rows, vars := blocks[e].rows, blocks[e].vars
-		if a.entries[e] >= 0 {
-			er, ev := blocks[e].er, blocks[e].ev
-			for k := range er {
-				fr, fv := net.free[rows[er[k]]], net.free[vars[ev[k]]]
-				if fr >= 0 && fv >= 0 {
-					b.Mark(fr, fv)
+			k = 0
+			count := func(r, v int32) {
+				if net.free[bl.rows[r]] >= 0 && net.free[bl.vars[v]] >= 0 {
+					marks++
+				}
+				k++
+			}
+			if w, ok := el.(elements.EntryLister); ok {
+				w.EachEntry(count)
+			} else {
+				bl.er, bl.ev = p.Entries()
+				for i := range bl.er {
+					count(bl.er[i], bl.ev[i])
 				}
 			}
+			a.entries[e] = k
 		} else {
-			for _, r := range rows {
-				fr := net.free[r]
-				if fr < 0 {
-					continue
-				}
-				for _, v := range vars {
-					if fv := net.free[v]; fv >= 0 {
-						b.Mark(fr, fv)
-					}
-				}
-			}
+			marks += k
 		}
-		a.maxR = max(a.maxR, len(rows))
-		a.maxV = max(a.maxV, len(vars))
+		total += k
+		a.rowStart[e+1] = a.rowStart[e] + int32(len(bl.rows))
+		a.varStart[e+1] = a.varStart[e] + int32(len(bl.vars))
+		a.slotStart[e+1] = a.slotStart[e] + int32(k)
+		a.nvars[e] = int32(len(bl.vars))
+		a.maxR = max(a.maxR, len(bl.rows))
+		a.maxV = max(a.maxV, len(bl.vars))
 		if _, ok := el.(elements.Storage); ok {
 			a.storing = append(a.storing, e)
 		}
+		blocks[e] = bl
 	}
-	a.pattern = b.Build()
-	a.rowStart = make([]int32, len(a.elems)+1)
-	a.slotStart = make([]int32, len(a.elems)+1)
-	a.nvars = make([]int32, len(a.elems))
-	a.varStart = make([]int32, len(a.elems)+1)
+	b.Grow(marks)
+	a.slots = make([]int32, total)
+	a.rows = make([]int32, a.rowStart[ne])
+	a.given = make([]bool, a.varStart[ne])
+	// Mark: slots holds each entry's mark number for now, −1 where its
+	// row or its var is given.
+	mark := func(k int, fr, fv int) {
+		if fr < 0 || fv < 0 {
+			a.slots[k] = -1
+			return
+		}
+		a.slots[k] = int32(b.Marks())
+		b.Mark(fr, fv)
+	}
 	for e, bl := range blocks {
-		a.varStart[e+1] = a.varStart[e] + int32(len(bl.vars))
-		for _, v := range bl.vars {
-			a.given = append(a.given, net.free[v] < 0)
+		for i, r := range bl.rows {
+			a.rows[int(a.rowStart[e])+i] = int32(r)
 		}
-		a.rowStart[e+1] = a.rowStart[e] + int32(len(bl.rows))
-		a.nvars[e] = int32(len(bl.vars))
-		for _, r := range bl.rows {
-			a.rows = append(a.rows, int32(r))
+		for i, v := range bl.vars {
+			a.given[int(a.varStart[e])+i] = net.free[v] < 0
 		}
-		if bl.er != nil || a.entries[e] >= 0 {
-			a.slotStart[e+1] = a.slotStart[e] + int32(len(bl.er))
-			for k := range bl.er {
-				slot := -1
-				fr, fv := net.free[bl.rows[bl.er[k]]], net.free[bl.vars[bl.ev[k]]]
-				if fr >= 0 && fv >= 0 {
-					slot = a.pattern.Index(fr, fv)
-				}
-				a.slots = append(a.slots, int32(slot))
+		k := int(a.slotStart[e])
+		if a.entries[e] >= 0 {
+			put := func(r, v int32) {
+				mark(k, net.free[bl.rows[r]], net.free[bl.vars[v]])
+				k++
 			}
-			continue
-		}
-		a.slotStart[e+1] = a.slotStart[e] + int32(len(bl.rows)*len(bl.vars))
-		for _, r := range bl.rows {
-			fr := net.free[r]
-			for _, v := range bl.vars {
-				slot := -1
-				if fv := net.free[v]; fr >= 0 && fv >= 0 {
-					slot = a.pattern.Index(fr, fv)
+			if w, ok := a.elems[e].(elements.EntryLister); ok {
+				w.EachEntry(put)
+			} else {
+				for i := range bl.er {
+					put(bl.er[i], bl.ev[i])
 				}
-				a.slots = append(a.slots, int32(slot))
 			}
+		} else {
+			for _, r := range bl.rows {
+				fr := net.free[r]
+				for _, v := range bl.vars {
+					mark(k, fr, net.free[v])
+					k++
+				}
+			}
+		}
+		blocks[e] = block{} // let a plate's lists go
+	}
+	var at []int32
+	a.pattern, at = b.BuildSlots()
+	a.pattern.Val = nil // only the pattern is kept: Steady.Pattern gives values
+	for k, m := range a.slots {
+		if m >= 0 {
+			a.slots[k] = at[m]
 		}
 	}
 	return a
 }
 
 // evaluator evaluates an assembly into per-variable sums; each Problem has
-// its own, so that several may run at once.
+// its own, so that several may run at once. A Patterned element adds its
+// derivatives straight into the Jacobian through its slots (local); every
+// other element fills a dense block (dense) that is scattered after it.
 type evaluator struct {
 	a     *assembly
 	local elements.Local
+	dense elements.Local
 }
 
 // eval evaluates every element at s: flow into each variable's equation
@@ -166,12 +179,10 @@ func (ev *evaluator) eval(s *elements.State, sum, mag []float64, jac *sparse.Mat
 		jac.Zero()
 	}
 	a := ev.a
-	l := &ev.local
 	for e, el := range a.elems {
-		a.reset(l, e, jac != nil)
-		l.Given = a.given[a.varStart[e]:a.varStart[e+1]]
+		l := ev.reset(e, jac)
 		el.Eval(s, l)
-		ev.scatter(e, sum, mag, jac)
+		ev.scatter(e, l, sum, mag, jac)
 	}
 }
 
@@ -183,29 +194,38 @@ func (ev *evaluator) stored(s *elements.State, sum []float64, jac *sparse.Matrix
 		jac.Zero()
 	}
 	a := ev.a
-	l := &ev.local
 	for _, e := range a.storing {
-		a.reset(l, e, jac != nil)
-		l.Given = a.given[a.varStart[e]:a.varStart[e+1]]
+		l := ev.reset(e, jac)
 		a.elems[e].(elements.Storage).Stored(s, l)
-		ev.scatter(e, sum, nil, jac)
+		ev.scatter(e, l, sum, nil, jac)
 	}
 }
 
-// reset sizes and zeroes l for element e.
-func (a *assembly) reset(l *elements.Local, e int, jac bool) {
-	nr, nv := int(a.rowStart[e+1]-a.rowStart[e]), int(a.nvars[e])
-	if ne := a.entries[e]; ne >= 0 {
-		l.ResetEntries(nr, nv, ne, jac)
-		return
-	}
-	l.Reset(nr, nv, jac)
-}
-
-// scatter adds element e's local values into the sums and the Jacobian.
-func (ev *evaluator) scatter(e int, sum, mag []float64, jac *sparse.Matrix) {
+// reset sizes and zeroes the Local for element e and returns it: for a
+// Patterned element, with jac's values and the element's slots when
+// derivatives are wanted.
+func (ev *evaluator) reset(e int, jac *sparse.Matrix) *elements.Local {
 	a := ev.a
-	l := &ev.local
+	nr, nv := int(a.rowStart[e+1]-a.rowStart[e]), int(a.nvars[e])
+	var l *elements.Local
+	if a.entries[e] >= 0 {
+		l = &ev.local
+		l.ResetEntries(nr, nv, 0, false)
+		if jac != nil {
+			l.J, l.Slot = jac.Val, a.slots[a.slotStart[e]:a.slotStart[e+1]]
+		}
+	} else {
+		l = &ev.dense
+		l.Reset(nr, nv, jac != nil)
+	}
+	l.Given = a.given[a.varStart[e]:a.varStart[e+1]]
+	return l
+}
+
+// scatter adds element e's local values into the sums and, unless the
+// element wrote them there itself, the Jacobian.
+func (ev *evaluator) scatter(e int, l *elements.Local, sum, mag []float64, jac *sparse.Matrix) {
+	a := ev.a
 	r0 := a.rowStart[e]
 	for k, r := range a.rows[r0:a.rowStart[e+1]] {
 		sum[r] += l.R[k]
@@ -213,7 +233,7 @@ func (ev *evaluator) scatter(e int, sum, mag []float64, jac *sparse.Matrix) {
 			mag[r] += math.Abs(l.R[k])
 		}
 	}
-	if jac != nil {
+	if jac != nil && l.Slot == nil {
 		for k, slot := range a.slots[a.slotStart[e]:a.slotStart[e+1]] {
 			if slot >= 0 {
 				jac.Val[slot] += l.J[k]

@@ -2,6 +2,7 @@ package network
 
 import (
 	"fmt"
+	"slices"
 	"sort"
 	"strings"
 
@@ -322,13 +323,33 @@ func (net *Network) Unknowns() int { return len(net.unknown) }
 func (net *Network) WithCoefficients(scale map[string]float64) *Network {
 	c := *net
 	c.Links = append([]Link(nil), net.Links...)
+	same := true // whether every scaled element has its original's entries
 	for i, l := range c.Links {
 		if k, ok := scale[l.ID]; ok {
 			if el, scaled := elements.ScaleCoefficient(l.Element, k); scaled {
 				c.Links[i].Element = el
+				same = same && sameEntries(l.Element, el)
 			}
 		}
 	}
-	c.asm = c.assemble()
+	if same && net.asm != nil {
+		// The positions are the same: only the elements change.
+		a := *net.asm
+		a.elems = c.allElements()
+		c.asm = &a
+	} else {
+		c.asm = c.assemble()
+	}
 	return &c
+}
+
+// sameEntries reports whether element b has a's rows and vars and stamps
+// the same way (densely, or by the same kind of pattern), so that a's
+// resolved positions serve b.
+func sameEntries(a, b elements.Element) bool {
+	_, pa := a.(elements.Patterned)
+	_, pb := b.(elements.Patterned)
+	_, sa := a.(elements.Storage)
+	_, sb := b.(elements.Storage)
+	return !pa && !pb && sa == sb && slices.Equal(a.Rows(), b.Rows()) && slices.Equal(a.Vars(), b.Vars())
 }

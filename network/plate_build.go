@@ -78,7 +78,8 @@ func (net *Network) buildPlates(m *Model) Problems {
 		}
 		for _, f := range s.Faces {
 			face, _ := elements.ParseFace(f.Face)
-			j := elements.PlateJoin{Face: face, Node: net.Index[f.To]}
+			node := net.Index[f.To]
+			j := elements.PlateJoin{Face: face, Node: node, NodeGiven: net.Vars[node].Given}
 			if f.HasRegion {
 				j.Region = elements.Rect{X0: f.Region[0], Y0: f.Region[1], X1: f.Region[2], Y1: f.Region[3]}
 			}
@@ -99,7 +100,7 @@ func (net *Network) buildPlates(m *Model) Problems {
 				addJoin(j, "conductance")
 			}
 			if f.Emiss > 0 {
-				r := elements.PlateJoin{Face: face, Region: j.Region, Node: j.Node, Emissivity: f.Emiss, Name: name("radiation")}
+				r := elements.PlateJoin{Face: face, Region: j.Region, Node: j.Node, NodeGiven: j.NodeGiven, Emissivity: f.Emiss, Name: name("radiation")}
 				addJoin(r, "radiation")
 			}
 		}
@@ -158,30 +159,34 @@ func (net *Network) buildPlates(m *Model) Problems {
 }
 
 // refreshViews sets the variable of each plate's node to its hottest
-// cell's temperature, in the full variable vector x.
-func (net *Network) refreshViews(x []float64) {
+// cell's temperature, in the full variable vector x, and returns each
+// plate's summary (in the order of net.plates).
+func (net *Network) refreshViews(x []float64) []elements.PlateSummary {
 	if len(net.plates) == 0 {
-		return
+		return nil
 	}
 	s := &elements.State{X: x, Env: &net.Env}
-	for _, bp := range net.plates {
+	out := make([]elements.PlateSummary, len(net.plates))
+	for i, bp := range net.plates {
 		if bp.el != nil {
-			x[bp.view] = bp.el.Summary(s).Hottest
+			out[i] = bp.el.Summary(s)
+			x[bp.view] = out[i].Hottest
 		}
 	}
+	return out
 }
 
 // plateResults summarises every plate at the state s, whose plate nodes
-// refreshViews has set.
-func (net *Network) plateResults(s *elements.State) []PlateResult {
+// refreshViews has set, returning sums.
+func (net *Network) plateResults(s *elements.State, sums []elements.PlateSummary) []PlateResult {
 	var out []PlateResult
 	margin := net.Model.RequiredMargin
-	for _, bp := range net.plates {
+	for i, bp := range net.plates {
 		if bp.el == nil {
 			continue
 		}
 		sp := bp.spec
-		sum := bp.el.Summary(s)
+		sum := sums[i]
 		r := PlateResult{ID: sp.ID, Line: sp.Line, NX: sp.NX, NY: sp.NY, NZ: bp.nz, Width: sp.Width, Length: sp.Length, Thickness: sp.Thickness(),
 			ZEdges: bp.el.ZEdges(), Hottest: sum.Hottest, Mean: sum.Mean, Coolest: sum.Coolest, HotX: sum.HotX, HotY: sum.HotY, HotZ: sum.HotZ,
 			Limit: sp.Limit, HasLimit: sp.HasLimit, T: s.X[bp.base : bp.base+sp.NX*sp.NY*bp.nz]}

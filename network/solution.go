@@ -106,8 +106,8 @@ func (net *Network) Solution(x []float64) *Solution {
 		panic(fmt.Sprintf("network: solution state cannot be evaluated: %v", err))
 	}
 	p.ev.eval(&p.state, p.sum, p.mag, nil)
-	net.refreshViews(p.x)
-	sol := &Solution{Net: net, X: append([]float64(nil), p.x...)}
+	sums := net.refreshViews(p.x)
+	sol := &Solution{Net: net, X: p.x} // p is this solution's own
 	sol.T = sol.X[:len(net.Nodes)]
 	state := &elements.State{X: sol.X, Env: &net.Env}
 	margin := net.Model.RequiredMargin
@@ -176,7 +176,7 @@ func (net *Network) Solution(x []float64) *Solution {
 	}
 	sol.Balance.Imbalance = sol.Balance.In + sol.Balance.Environment - out
 	sol.Branches, sol.Balance.Mass = net.airflowResults(state)
-	sol.Plates = net.plateResults(state)
+	sol.Plates = net.plateResults(state, sums)
 	return sol
 }
 

@@ -61,8 +61,14 @@ func (p *Steady) EquationName(i int) string { return p.net.varEquation(p.net.unk
 // Variable returns the network variable of unknown i.
 func (p *Steady) Variable(i int) int { return p.net.unknown[i] }
 
-// Pattern returns a matrix with the Jacobian's pattern.
-func (p *Steady) Pattern() *sparse.Matrix { return p.net.asm.pattern.Clone() }
+// Pattern returns a matrix with the Jacobian's pattern, every value
+// zero. Its values are its own; its RowPtr and Col are the network's, shared
+// with every other matrix Pattern returns (a meshed plate's are large), and
+// must not be changed.
+func (p *Steady) Pattern() *sparse.Matrix {
+	m := p.net.asm.pattern
+	return &sparse.Matrix{N: m.N, RowPtr: m.RowPtr, Col: m.Col, Val: make([]float64, len(m.Col))}
+}
 
 // Jacobian returns a matrix with the Jacobian's pattern.
 //

@@ -7,6 +7,7 @@ package sparse
 
 import (
 	"fmt"
+	"math"
 	"slices"
 	"sort"
 )
@@ -14,12 +15,15 @@ import (
 // Builder collects the structural non-zeros of a square matrix.
 type Builder struct {
 	n    int
-	rows []int
-	cols []int
+	rows []int32
+	cols []int32
 }
 
 // NewBuilder returns a builder for an n×n matrix.
 func NewBuilder(n int) *Builder {
+	if n > math.MaxInt32 {
+		panic(fmt.Sprintf("sparse: %d rows are too many for a builder", n))
+	}
 	return &Builder{n: n}
 }
 
@@ -31,58 +35,102 @@ func (b *Builder) Grow(k int) {
 }
 
 // Mark records that entry (i, j) may be non-zero. Marking an entry twice is
-// harmless.
+// harmless. Marks are numbered from 0 in the order they are made (see
+// BuildSlots).
 func (b *Builder) Mark(i, j int) {
-	if i < 0 || i >= b.n || j < 0 || j >= b.n {
+	if uint(i) >= uint(b.n) || uint(j) >= uint(b.n) {
 		panic(fmt.Sprintf("sparse: entry (%d, %d) outside %d×%d", i, j, b.n, b.n))
 	}
-	b.rows = append(b.rows, i)
-	b.cols = append(b.cols, j)
+	b.rows = append(b.rows, int32(i))
+	b.cols = append(b.cols, int32(j))
 }
+
+// Marks returns the number of marks made so far.
+func (b *Builder) Marks() int { return len(b.rows) }
 
 // Build returns a matrix with the marked pattern plus the full diagonal, all
 // values zero.
 func (b *Builder) Build() *Matrix {
+	m, _ := b.build(false)
+	return m
+}
+
+// BuildSlots is Build that also returns where each mark landed: slot[k]
+// is the position in the matrix's Val of the entry of mark k. It spares a
+// search per entry when the same entries are later stamped by position.
+func (b *Builder) BuildSlots() (*Matrix, []int32) {
+	return b.build(true)
+}
+
+// build buckets the marks by row (a counting sort, diagonal included),
+// then sorts and de-duplicates each row. A bucketed mark is its column in
+// the high 32 bits and one more than its number in the low ones (0 for
+// the diagonal), so that one sort of integers orders a row by column.
+func (b *Builder) build(slots bool) (*Matrix, []int32) {
 	n := b.n
-	// Bucket the marks by row (counting sort), diagonal included.
-	count := make([]int, n+1)
+	if len(b.rows) >= math.MaxUint32-1 {
+		panic(fmt.Sprintf("sparse: %d marks are too many for a builder", len(b.rows)))
+	}
+	start := make([]int, n+1)
 	for _, i := range b.rows {
-		count[i+1]++
+		start[i+1]++
 	}
-	for i := 0; i < n; i++ {
-		count[i+1]++ // the diagonal
+	for i := range n {
+		start[i+1] += start[i] + 1 // the diagonal
 	}
-	for i := 0; i < n; i++ {
-		count[i+1] += count[i]
-	}
-	cols := make([]int, count[n])
-	next := append([]int(nil), count[:n]...)
-	for i := 0; i < n; i++ {
-		cols[next[i]] = i
-		next[i]++
+	keys := make([]uint64, start[n])
+	next := make([]int, n)
+	for i := range n {
+		keys[start[i]] = uint64(i) << 32
+		next[i] = start[i] + 1
 	}
 	for k, i := range b.rows {
-		cols[next[i]] = b.cols[k]
+		keys[next[i]] = uint64(b.cols[k])<<32 | uint64(k+1)
 		next[i]++
 	}
-	// Sort and de-duplicate each row in place, compacting as we go.
-	m := &Matrix{N: n, RowPtr: make([]int, n+1)}
-	out := 0
-	for i := 0; i < n; i++ {
-		row := cols[count[i]:count[i+1]]
-		sort.Ints(row)
-		for k, c := range row {
-			if k > 0 && c == row[k-1] {
-				continue
-			}
-			cols[out] = c
-			out++
-		}
-		m.RowPtr[i+1] = out
+	next = nil
+	var slot []int32
+	if slots {
+		slot = make([]int32, len(b.rows))
 	}
-	m.Col = cols[:out:out]
-	m.Val = make([]float64, out)
-	return m
+	m := &Matrix{N: n, RowPtr: make([]int, n+1)}
+	cols := make([]int, 0, start[n])
+	for i := range n {
+		row := keys[start[i]:start[i+1]]
+		sortKeys(row)
+		last := -1
+		for _, key := range row {
+			c := int(key >> 32)
+			if c != last {
+				cols = append(cols, c)
+				last = c
+			}
+			if mk := uint32(key); slots && mk > 0 {
+				slot[mk-1] = int32(len(cols) - 1)
+			}
+		}
+		m.RowPtr[i+1] = len(cols)
+	}
+	m.Col = cols[:len(cols):len(cols)]
+	m.Val = make([]float64, len(cols))
+	return m, slot
+}
+
+// sortKeys sorts a row's keys: by insertion when short, as the rows of a
+// thermal network mostly are.
+func sortKeys(row []uint64) {
+	if len(row) > 24 {
+		slices.Sort(row)
+		return
+	}
+	for k := 1; k < len(row); k++ {
+		v := row[k]
+		j := k
+		for ; j > 0 && row[j-1] > v; j-- {
+			row[j] = row[j-1]
+		}
+		row[j] = v
+	}
 }
 
 // Matrix is a square matrix in compressed sparse row form. Row i's column
