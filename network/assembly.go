@@ -28,6 +28,9 @@ type assembly struct {
 	maxV      int
 	storing   []int // indices of elements that implement elements.Storage
 	entries   []int // per element, its number of entries if Patterned, else −1
+	// temp marks the unknowns that are temperatures (checked to be
+	// physical at every evaluation without reading the variables).
+	temp []bool
 }
 
 // allElements returns every element: heat inputs, heat capacities, then
@@ -49,6 +52,10 @@ func (net *Network) allElements() []elements.Element {
 func (net *Network) assemble() *assembly {
 	a := &assembly{elems: net.allElements()}
 	n := len(net.unknown)
+	a.temp = make([]bool, n)
+	for u, v := range net.unknown {
+		a.temp[u] = net.Vars[v].Kind == TemperatureVar
+	}
 	b := sparse.NewBuilder(n)
 	ne := len(a.elems)
 	a.entries = make([]int, ne)
