@@ -63,14 +63,15 @@ func (net *Network) assemble() *assembly {
 	a.slotStart = make([]int32, ne+1)
 	a.nvars = make([]int32, ne)
 	a.varStart = make([]int32, ne+1)
-	// Count first, so that nothing below reallocates: a meshed plate has
-	// millions of entries.
+	// Count first, so that nothing below reallocates and the builder
+	// puts each mark straight into its row: a meshed plate has millions
+	// of entries.
 	type block struct {
 		rows, vars []int
 		er, ev     []int32 // entries of a Patterned element that does not list them
 	}
 	blocks := make([]block, ne)
-	total, marks := 0, 0
+	total := 0
 	for e, el := range a.elems {
 		bl := block{rows: el.Rows(), vars: el.Vars()}
 		a.entries[e] = -1
@@ -78,8 +79,8 @@ func (net *Network) assemble() *assembly {
 		if p, ok := el.(elements.Patterned); ok {
 			k = 0
 			count := func(r, v int32) {
-				if net.free[bl.rows[r]] >= 0 && net.free[bl.vars[v]] >= 0 {
-					marks++
+				if fr := net.free[bl.rows[r]]; fr >= 0 && net.free[bl.vars[v]] >= 0 {
+					b.Count(fr)
 				}
 				k++
 			}
@@ -93,7 +94,15 @@ func (net *Network) assemble() *assembly {
 			}
 			a.entries[e] = k
 		} else {
-			marks += k
+			for _, r := range bl.rows {
+				if fr := net.free[r]; fr >= 0 {
+					for _, v := range bl.vars {
+						if net.free[v] >= 0 {
+							b.Count(fr)
+						}
+					}
+				}
+			}
 		}
 		total += k
 		a.rowStart[e+1] = a.rowStart[e] + int32(len(bl.rows))
@@ -107,7 +116,6 @@ func (net *Network) assemble() *assembly {
 		}
 		blocks[e] = bl
 	}
-	b.Grow(marks)
 	a.slots = make([]int32, total)
 	a.rows = make([]int32, a.rowStart[ne])
 	a.given = make([]bool, a.varStart[ne])
