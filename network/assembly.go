@@ -2,6 +2,8 @@ package network
 
 import (
 	"math"
+	"runtime"
+	"sync"
 
 	"github.com/heatgraph/heatgraph/elements"
 	"github.com/heatgraph/heatgraph/sparse"
@@ -28,6 +30,9 @@ type assembly struct {
 	maxV      int
 	storing   []int // indices of elements that implement elements.Storage
 	entries   []int // per element, its number of entries if Patterned, else −1
+	// temp marks the unknowns that are temperatures (checked to be
+	// physical at every evaluation without reading the variables).
+	temp []bool
 }
 
 // allElements returns every element: heat inputs, heat capacities, then
@@ -49,6 +54,10 @@ func (net *Network) allElements() []elements.Element {
 func (net *Network) assemble() *assembly {
 	a := &assembly{elems: net.allElements()}
 	n := len(net.unknown)
+	a.temp = make([]bool, n)
+	for u, v := range net.unknown {
+		a.temp[u] = net.Vars[v].Kind == TemperatureVar
+	}
 	b := sparse.NewBuilder(n)
 	ne := len(a.elems)
 	a.entries = make([]int, ne)
@@ -56,14 +65,15 @@ func (net *Network) assemble() *assembly {
 	a.slotStart = make([]int32, ne+1)
 	a.nvars = make([]int32, ne)
 	a.varStart = make([]int32, ne+1)
-	// Count first, so that nothing below reallocates: a meshed plate has
-	// millions of entries.
+	// Count first, so that nothing below reallocates and the builder
+	// puts each mark straight into its row: a meshed plate has millions
+	// of entries.
 	type block struct {
 		rows, vars []int
 		er, ev     []int32 // entries of a Patterned element that does not list them
 	}
 	blocks := make([]block, ne)
-	total, marks := 0, 0
+	total := 0
 	for e, el := range a.elems {
 		bl := block{rows: el.Rows(), vars: el.Vars()}
 		a.entries[e] = -1
@@ -71,8 +81,8 @@ func (net *Network) assemble() *assembly {
 		if p, ok := el.(elements.Patterned); ok {
 			k = 0
 			count := func(r, v int32) {
-				if net.free[bl.rows[r]] >= 0 && net.free[bl.vars[v]] >= 0 {
-					marks++
+				if fr := net.free[bl.rows[r]]; fr >= 0 && net.free[bl.vars[v]] >= 0 {
+					b.Count(fr)
 				}
 				k++
 			}
@@ -86,7 +96,15 @@ func (net *Network) assemble() *assembly {
 			}
 			a.entries[e] = k
 		} else {
-			marks += k
+			for _, r := range bl.rows {
+				if fr := net.free[r]; fr >= 0 {
+					for _, v := range bl.vars {
+						if net.free[v] >= 0 {
+							b.Count(fr)
+						}
+					}
+				}
+			}
 		}
 		total += k
 		a.rowStart[e+1] = a.rowStart[e] + int32(len(bl.rows))
@@ -100,7 +118,6 @@ func (net *Network) assemble() *assembly {
 		}
 		blocks[e] = bl
 	}
-	b.Grow(marks)
 	a.slots = make([]int32, total)
 	a.rows = make([]int32, a.rowStart[ne])
 	a.given = make([]bool, a.varStart[ne])
@@ -176,7 +193,7 @@ func (ev *evaluator) eval(s *elements.State, sum, mag []float64, jac *sparse.Mat
 		clear(mag)
 	}
 	if jac != nil {
-		jac.Zero()
+		clearLarge(jac.Val)
 	}
 	a := ev.a
 	for e, el := range a.elems {
@@ -191,7 +208,7 @@ func (ev *evaluator) eval(s *elements.State, sum, mag []float64, jac *sparse.Mat
 func (ev *evaluator) stored(s *elements.State, sum []float64, jac *sparse.Matrix) {
 	clear(sum)
 	if jac != nil {
-		jac.Zero()
+		clearLarge(jac.Val)
 	}
 	a := ev.a
 	for _, e := range a.storing {
@@ -240,4 +257,21 @@ func (ev *evaluator) scatter(e int, l *elements.Local, sum, mag []float64, jac *
 			}
 		}
 	}
+}
+
+// clearLarge zeroes v: a long one (a meshed plate's Jacobian) in parts
+// done at once, as one core alone does not reach the memory's speed.
+func clearLarge(v []float64) {
+	const part = 1 << 20
+	parts := min(runtime.GOMAXPROCS(0), len(v)/part)
+	if parts < 2 {
+		clear(v)
+		return
+	}
+	var wg sync.WaitGroup
+	for w := range parts {
+		lo, hi := len(v)*w/parts, len(v)*(w+1)/parts
+		wg.Go(func() { clear(v[lo:hi]) })
+	}
+	wg.Wait()
 }

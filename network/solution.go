@@ -126,15 +126,19 @@ func (net *Network) Solution(x []float64) *Solution {
 		}
 		sol.Nodes = append(sol.Nodes, r)
 	}
+	worst, worstSc := -1, 0.0
 	for _, u := range net.unknown {
-		v := net.Vars[u]
 		sc := math.Abs(p.sum[u]) / math.Max(p.mag[u], math.SmallestNonzeroFloat64)
 		if p.sum[u] == 0 {
 			sc = 0
 		}
-		if sol.Residual.Variable == "" || sc > sol.Residual.Scaled {
-			sol.Residual = Residual{Variable: net.varName(u), Value: p.sum[u], Unit: varKinds[v.Kind].EquationUnit, Scaled: sc}
+		if worst < 0 || sc > worstSc {
+			worst, worstSc = u, sc
 		}
+	}
+	if worst >= 0 {
+		// Named once: a plate cell's name takes some formatting.
+		sol.Residual = Residual{Variable: net.varName(worst), Value: p.sum[worst], Unit: varKinds[net.Vars[worst].Kind].EquationUnit, Scaled: worstSc}
 	}
 	for _, l := range net.Links {
 		lr := LinkResult{ID: l.ID, Kind: l.Kind, From: net.Nodes[l.From].ID, To: net.Nodes[l.To].ID, Line: l.Line}

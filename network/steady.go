@@ -95,9 +95,10 @@ func (p *Steady) InitialGuess() []float64 {
 // load puts the unknowns x into the full variable vector, checking that
 // every temperature is physical.
 func (p *Steady) load(x []float64) error {
+	temp := p.net.asm.temp
 	for u, v := range p.net.unknown {
 		t := x[u]
-		if p.net.Vars[v].Kind == TemperatureVar && (!(t > 0) || math.IsInf(t, 0)) {
+		if temp[u] && (!(t > 0) || math.IsInf(t, 0)) {
 			return fmt.Errorf("node %q would be at %.4g K, at or below absolute zero: no physical state has these balances (does a negative power take more heat out of it than its links can bring?)", p.net.Vars[v].Owner, t)
 		}
 		if math.IsNaN(t) || math.IsInf(t, 0) {

@@ -60,3 +60,82 @@ func TestBuildSlots(t *testing.T) {
 		}
 	}
 }
+
+// Counting the rows first gives the same matrix and slots as listing the
+// marks, and miscounts are caught.
+func TestBuilderCounted(t *testing.T) {
+	rng := rand.New(rand.NewPCG(3, 4))
+	const n = 50
+	type mark struct{ i, j int }
+	var marks []mark
+	for range 300 {
+		i := rng.IntN(n)
+		if rng.IntN(4) == 0 {
+			i = 7 // one long row
+		}
+		marks = append(marks, mark{i, rng.IntN(n)})
+	}
+	listed, counted := NewBuilder(n), NewBuilder(n)
+	for _, mk := range marks {
+		counted.Count(mk.i)
+	}
+	for _, mk := range marks {
+		listed.Mark(mk.i, mk.j)
+		counted.Mark(mk.i, mk.j)
+	}
+	if counted.Marks() != len(marks) {
+		t.Fatalf("Marks() = %d, want %d", counted.Marks(), len(marks))
+	}
+	ml, sl := listed.BuildSlots()
+	mc, sc := counted.BuildSlots()
+	if len(ml.Col) != len(mc.Col) || len(sl) != len(sc) {
+		t.Fatalf("listed: %d entries, %d slots; counted: %d, %d", len(ml.Col), len(sl), len(mc.Col), len(sc))
+	}
+	for i := range ml.RowPtr {
+		if ml.RowPtr[i] != mc.RowPtr[i] {
+			t.Fatalf("RowPtr[%d]: listed %d, counted %d", i, ml.RowPtr[i], mc.RowPtr[i])
+		}
+	}
+	for k := range ml.Col {
+		if ml.Col[k] != mc.Col[k] {
+			t.Fatalf("Col[%d]: listed %d, counted %d", k, ml.Col[k], mc.Col[k])
+		}
+	}
+	for k := range sl {
+		if sl[k] != sc[k] {
+			t.Fatalf("slot %d: listed %d, counted %d", k, sl[k], sc[k])
+		}
+	}
+	// Building a listed builder again gives the same.
+	if again := listed.Build(); len(again.Col) != len(ml.Col) {
+		t.Errorf("second Build: %d entries, first %d", len(again.Col), len(ml.Col))
+	}
+	panics := func(name string, f func()) {
+		t.Helper()
+		defer func() {
+			if recover() == nil {
+				t.Errorf("%s: no panic", name)
+			}
+		}()
+		f()
+	}
+	panics("a mark beyond the count", func() {
+		b := NewBuilder(3)
+		b.Count(1)
+		b.Mark(1, 0)
+		b.Mark(1, 2)
+	})
+	panics("a mark short of the count", func() {
+		b := NewBuilder(3)
+		b.Count(1)
+		b.Count(2)
+		b.Mark(1, 0)
+		b.Build()
+	})
+	panics("a count after a mark", func() {
+		b := NewBuilder(3)
+		b.Count(1)
+		b.Mark(1, 0)
+		b.Count(2)
+	})
+}

@@ -13,10 +13,20 @@ import (
 )
 
 // Builder collects the structural non-zeros of a square matrix.
+//
+// A caller that knows its marks ahead may Count the row of every mark
+// before making the first one: the marks then go straight into their rows,
+// with no list of them kept (a meshed plate has millions).
 type Builder struct {
-	n    int
-	rows []int32
-	cols []int32
+	n     int
+	rows  []int32
+	cols  []int32
+	marks int
+	// When counted: keys holds each row's bucketed marks (see build),
+	// rows start[i] ≤ k < start[i+1], filled up to next[i].
+	start, next []int
+	keys        []uint64
+	counted     bool
 }
 
 // NewBuilder returns a builder for an n×n matrix.
@@ -30,8 +40,26 @@ func NewBuilder(n int) *Builder {
 // Grow makes room for k more marks, so that marking a known number of
 // entries does not reallocate.
 func (b *Builder) Grow(k int) {
+	if b.start != nil {
+		return
+	}
 	b.rows = slices.Grow(b.rows, k)
 	b.cols = slices.Grow(b.cols, k)
+}
+
+// Count announces a mark in row i, to be made later. Either every mark's
+// row is counted before the first Mark, or none is.
+func (b *Builder) Count(i int) {
+	if b.marks > 0 {
+		panic("sparse: Count after Mark")
+	}
+	if uint(i) >= uint(b.n) {
+		panic(fmt.Sprintf("sparse: row %d outside %d×%d", i, b.n, b.n))
+	}
+	if b.start == nil {
+		b.start = make([]int, b.n+1)
+	}
+	b.start[i+1]++
 }
 
 // Mark records that entry (i, j) may be non-zero. Marking an entry twice is
@@ -41,12 +69,25 @@ func (b *Builder) Mark(i, j int) {
 	if uint(i) >= uint(b.n) || uint(j) >= uint(b.n) {
 		panic(fmt.Sprintf("sparse: entry (%d, %d) outside %d×%d", i, j, b.n, b.n))
 	}
+	if b.start != nil {
+		if !b.counted {
+			b.bucket()
+		}
+		if b.next[i] == b.start[i+1] {
+			panic(fmt.Sprintf("sparse: more marks in row %d than counted", i))
+		}
+		b.keys[b.next[i]] = uint64(j)<<32 | uint64(b.marks+1)
+		b.next[i]++
+		b.marks++
+		return
+	}
 	b.rows = append(b.rows, int32(i))
 	b.cols = append(b.cols, int32(j))
+	b.marks++
 }
 
 // Marks returns the number of marks made so far.
-func (b *Builder) Marks() int { return len(b.rows) }
+func (b *Builder) Marks() int { return b.marks }
 
 // Build returns a matrix with the marked pattern plus the full diagonal, all
 // values zero.
@@ -68,30 +109,36 @@ func (b *Builder) BuildSlots() (*Matrix, []int32) {
 // the diagonal), so that one sort of integers orders a row by column.
 func (b *Builder) build(slots bool) (*Matrix, []int32) {
 	n := b.n
-	if len(b.rows) >= math.MaxUint32-1 {
-		panic(fmt.Sprintf("sparse: %d marks are too many for a builder", len(b.rows)))
+	var start []int
+	var keys []uint64
+	if b.start != nil {
+		// Counted: the marks are in their rows already (sorting them
+		// below in place changes nothing for a later Build).
+		if !b.counted {
+			b.bucket()
+		}
+		for i := range n {
+			if b.next[i] != b.start[i+1] {
+				panic(fmt.Sprintf("sparse: fewer marks in row %d than counted", i))
+			}
+		}
+		start, keys = b.start, b.keys
+	} else {
+		// Listed: bucket them here, leaving the builder as it is.
+		start = make([]int, n+1)
+		for _, i := range b.rows {
+			start[i+1]++
+		}
+		var next []int
+		keys, next = layout(start)
+		for k, i := range b.rows {
+			keys[next[i]] = uint64(b.cols[k])<<32 | uint64(k+1)
+			next[i]++
+		}
 	}
-	start := make([]int, n+1)
-	for _, i := range b.rows {
-		start[i+1]++
-	}
-	for i := range n {
-		start[i+1] += start[i] + 1 // the diagonal
-	}
-	keys := make([]uint64, start[n])
-	next := make([]int, n)
-	for i := range n {
-		keys[start[i]] = uint64(i) << 32
-		next[i] = start[i] + 1
-	}
-	for k, i := range b.rows {
-		keys[next[i]] = uint64(b.cols[k])<<32 | uint64(k+1)
-		next[i]++
-	}
-	next = nil
 	var slot []int32
 	if slots {
-		slot = make([]int32, len(b.rows))
+		slot = make([]int32, b.marks)
 	}
 	m := &Matrix{N: n, RowPtr: make([]int, n+1)}
 	cols := make([]int, 0, start[n])
@@ -114,6 +161,33 @@ func (b *Builder) build(slots bool) (*Matrix, []int32) {
 	m.Col = cols[:len(cols):len(cols)]
 	m.Val = make([]float64, len(cols))
 	return m, slot
+}
+
+// bucket lays out a counted builder's rows.
+func (b *Builder) bucket() {
+	b.keys, b.next = layout(b.start)
+	b.counted = true
+}
+
+// layout turns start from the marks per row (start[i+1] for row i) into
+// the rows' first positions among the keys, diagonal included, and
+// returns the keys with each row's diagonal first and, per row, the
+// position of its next mark.
+func layout(start []int) (keys []uint64, next []int) {
+	n := len(start) - 1
+	for i := range n {
+		start[i+1] += start[i] + 1 // the diagonal
+	}
+	if start[n]-n >= math.MaxUint32-1 {
+		panic(fmt.Sprintf("sparse: %d marks are too many for a builder", start[n]-n))
+	}
+	keys = make([]uint64, start[n])
+	next = make([]int, n)
+	for i := range n {
+		keys[start[i]] = uint64(i) << 32
+		next[i] = start[i] + 1
+	}
+	return keys, next
 }
 
 // sortKeys sorts a row's keys: by insertion when short, as the rows of a
