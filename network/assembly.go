@@ -33,6 +33,32 @@ type assembly struct {
 	// temp marks the unknowns that are temperatures (checked to be
 	// physical at every evaluation without reading the variables).
 	temp []bool
+	// runs are the unknowns in runs of consecutive variables (a plate's
+	// cells are one), for copying between unknowns and variables.
+	runs []run
+}
+
+// run is n unknowns from u whose variables are consecutive from v.
+type run struct{ u, v, n int }
+
+// unknownRuns returns the runs of unknown (unknown index → variable).
+func unknownRuns(unknown []int) []run {
+	var out []run
+	for u, v := range unknown {
+		if k := len(out) - 1; k >= 0 && out[k].v+out[k].n == v {
+			out[k].n++
+			continue
+		}
+		out = append(out, run{u: u, v: v, n: 1})
+	}
+	return out
+}
+
+// toUnknowns copies the variables' values vars into the unknowns' dst.
+func (a *assembly) toUnknowns(dst, vars []float64) {
+	for _, r := range a.runs {
+		copy(dst[r.u:r.u+r.n], vars[r.v:r.v+r.n])
+	}
 }
 
 // allElements returns every element: heat inputs, heat capacities, then
@@ -58,6 +84,7 @@ func (net *Network) assemble() *assembly {
 	for u, v := range net.unknown {
 		a.temp[u] = net.Vars[v].Kind == TemperatureVar
 	}
+	a.runs = unknownRuns(net.unknown)
 	b := sparse.NewBuilder(n)
 	ne := len(a.elems)
 	a.entries = make([]int, ne)

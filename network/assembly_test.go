@@ -138,3 +138,31 @@ components:
 		}
 	}
 }
+
+// Runs of unknowns cover every unknown once, each run's variables
+// consecutive.
+func TestUnknownRuns(t *testing.T) {
+	unknown := []int{1, 2, 3, 5, 6, 9, 10, 11, 12, 4}
+	runs := unknownRuns(unknown)
+	want := []run{{0, 1, 3}, {3, 5, 2}, {5, 9, 4}, {9, 4, 1}}
+	if len(runs) != len(want) {
+		t.Fatalf("runs %v, want %v", runs, want)
+	}
+	for i := range want {
+		if runs[i] != want[i] {
+			t.Errorf("run %d: %v, want %v", i, runs[i], want[i])
+		}
+	}
+	a := &assembly{runs: runs}
+	vars := make([]float64, 13)
+	for i := range vars {
+		vars[i] = float64(10 * i)
+	}
+	dst := make([]float64, len(unknown))
+	a.toUnknowns(dst, vars)
+	for u, v := range unknown {
+		if dst[u] != vars[v] {
+			t.Errorf("unknown %d: %g, want %g", u, dst[u], vars[v])
+		}
+	}
+}

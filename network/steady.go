@@ -96,15 +96,16 @@ func (p *Steady) InitialGuess() []float64 {
 // every temperature is physical.
 func (p *Steady) load(x []float64) error {
 	temp := p.net.asm.temp
-	for u, v := range p.net.unknown {
-		t := x[u]
+	for u, t := range x[:len(temp)] {
 		if temp[u] && (!(t > 0) || math.IsInf(t, 0)) {
-			return fmt.Errorf("node %q would be at %.4g K, at or below absolute zero: no physical state has these balances (does a negative power take more heat out of it than its links can bring?)", p.net.Vars[v].Owner, t)
+			return fmt.Errorf("node %q would be at %.4g K, at or below absolute zero: no physical state has these balances (does a negative power take more heat out of it than its links can bring?)", p.net.Vars[p.net.unknown[u]].Owner, t)
 		}
 		if math.IsNaN(t) || math.IsInf(t, 0) {
-			return fmt.Errorf("%s: %g is not finite", p.net.Vars[v].Name(), t)
+			return fmt.Errorf("%s: %g is not finite", p.net.Vars[p.net.unknown[u]].Name(), t)
 		}
-		p.x[v] = t
+	}
+	for _, r := range p.net.asm.runs {
+		copy(p.x[r.v:r.v+r.n], x[r.u:r.u+r.n])
 	}
 	return nil
 }
@@ -121,11 +122,9 @@ func (p *Steady) Evaluate(x, f []float64, jac *sparse.Matrix, mag []float64) err
 		m = p.mag
 	}
 	p.ev.eval(&p.state, p.sum, m, jac)
-	for u, v := range p.net.unknown {
-		f[u] = p.sum[v]
-		if mag != nil {
-			mag[u] = p.mag[v]
-		}
+	p.net.asm.toUnknowns(f, p.sum)
+	if mag != nil {
+		p.net.asm.toUnknowns(mag, p.mag)
 	}
 	return nil
 }
@@ -138,9 +137,7 @@ func (p *Steady) Stored(x, e []float64, m *sparse.Matrix) error {
 		return err
 	}
 	p.ev.stored(&p.state, p.sum, m)
-	for u, v := range p.net.unknown {
-		e[u] = p.sum[v]
-	}
+	p.net.asm.toUnknowns(e, p.sum)
 	return nil
 }
 
