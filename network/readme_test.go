@@ -49,3 +49,29 @@ func TestReadmeAnchors(t *testing.T) {
 	}
 	solveModel(t, "README.md", body)
 }
+
+// The README's plate snippet is a working part of a model: with the nodes
+// it names, it parses, builds and solves.
+func TestReadmePlate(t *testing.T) {
+	readme := readFile(t, "../README.md")
+	start := strings.Index(readme, "```yaml\nplates:")
+	if start < 0 {
+		t.Fatal("README.md has no plates example")
+	}
+	body := readme[start+len("```yaml\n"):]
+	body = body[:strings.Index(body, "```")]
+	model := `ambient: {temperature: 40 degC}
+nodes:
+  - {id: inside-air, kind: air}
+  - {id: housing}
+  - {id: isp-lid}
+links:
+  - {kind: convection, from: inside-air, to: housing, coefficient: 3 W/m2/K, area: 0.08 m2}
+  - {kind: convection, from: housing, coefficient: 5 W/m2/K, area: 0.1 m2}
+  - {kind: contact, from: isp-lid, to: housing, specific_resistance: 1 K*cm2/W, area: 3 cm2}
+` + body
+	sol := solveModel(t, "README.md", model)
+	if len(sol.Plates) != 1 || sol.Plates[0].NX != 110 || sol.Plates[0].NY != 80 {
+		t.Fatalf("README plate: %+v", sol.Plates)
+	}
+}
