@@ -199,16 +199,17 @@ func (m *Model) isolated() Problems {
 		id    string
 		line  int
 		fixed bool
+		plate bool
 	}
 	nodes := []entry{{id: AmbientID, line: m.Ambient.Line, fixed: true}}
 	for _, n := range m.Nodes {
-		nodes = append(nodes, entry{n.ID, n.Line, n.Kind == Fixed})
+		nodes = append(nodes, entry{n.ID, n.Line, n.Kind == Fixed, false})
 	}
 	for _, c := range m.Components {
-		nodes = append(nodes, entry{c.ID, c.Line, false})
+		nodes = append(nodes, entry{c.ID, c.Line, false, false})
 	}
 	for _, p := range m.Plates {
-		nodes = append(nodes, entry{p.ID, p.Line, false})
+		nodes = append(nodes, entry{p.ID, p.Line, false, true})
 	}
 	index := make(map[string]int, len(nodes))
 	parent := make([]int, len(nodes))
@@ -294,6 +295,11 @@ func (m *Model) isolated() Problems {
 		what := fmt.Sprintf("node %q has", ids[0])
 		if len(ids) > 1 {
 			what = fmt.Sprintf("nodes %s have", quoteList(ids))
+		}
+		if len(ids) == 1 && nodes[g[0]].plate {
+			out = append(out, Problem{File: m.File, Line: nodes[g[0]].line, Field: "plates[" + ids[0] + "].faces",
+				Message: fmt.Sprintf("plate %q has no path to any fixed temperature, so its temperatures are undetermined (join a face to ambient or to a node that leads there, e.g. faces: [{face: top, to: ambient, h: 5 W/(m2 K)}])", ids[0])})
+			continue
 		}
 		out = append(out, Problem{File: m.File, Line: nodes[g[0]].line, Field: "nodes",
 			Message: what + " no path to any fixed temperature, so the temperature is undetermined (link them to ambient or to a kind: fixed node, e.g. with a convection link)"})

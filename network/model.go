@@ -88,6 +88,7 @@ type ComponentSpec struct {
 	// on, "top" or "bottom".
 	At, Footprint [2]float64
 	Placed        bool // At and Footprint are given
+	placing       bool // at:, footprint: or side: is in the file, valid or not
 	Side          string
 	Limit         float64 // highest allowed junction temperature, K (when HasLimit)
 	HasLimit      bool

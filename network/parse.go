@@ -275,6 +275,7 @@ func (r *reader) readComponents(n *yaml.Node, m *Model, ids map[string]nodeRef) 
 			r.addf(o.values["r_jb"], o.field("r_jb"), "r_jb needs the board node it leads to (add board: <node id>)")
 		}
 		if o.has("at") || o.has("footprint") || o.has("side") {
+			c.placing = true
 			at, okAt := o.lengths("at", 2, true)
 			fp, okFp := o.lengths("footprint", 2, true)
 			c.Side = "top"
@@ -317,7 +318,7 @@ func (r *reader) resolveComponents(m *Model, ids map[string]nodeRef) {
 				r.broken = true
 				r.problems = append(r.problems, Problem{File: r.file, Line: c.Line, Field: "components[" + c.ID + "]." + end.key,
 					Message: fmt.Sprintf("%q is a plate; a component's case must be a node (give the case a node and join it to the plate's face under faces:)", end.id)})
-			} else if k == Plate && !c.Placed {
+			} else if k == Plate && !c.Placed && !c.placing {
 				r.broken = true
 				r.problems = append(r.problems, Problem{File: r.file, Line: c.Line, Field: "components[" + c.ID + "].board",
 					Message: fmt.Sprintf("%q is a plate: place the part on it with at: [x, y] (the centre of its footprint) and footprint: [width, length]", end.id)})

@@ -186,6 +186,10 @@ func (r *reader) readPlates(n *yaml.Node, m *Model, ids map[string]nodeRef) []Pl
 				}
 				if f, ok := r.readPlateFace(fo, &p, ids); ok {
 					p.Faces = append(p.Faces, f)
+				} else {
+					// A face dropped for a mistake would make the
+					// plate look cut off; say only what is wrong.
+					r.broken = true
 				}
 			}
 		}
