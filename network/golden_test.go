@@ -77,7 +77,7 @@ func FuzzParse(f *testing.F) {
 		if err != nil {
 			return
 		}
-		if m.Cells() > 20000 {
+		if m.Cells() > 3000 {
 			return // a fine mesh is slow and large, not a new path
 		}
 		net, err := network.Build(m)
