@@ -21,31 +21,9 @@ import (
 // cell thick.
 var cameraBoard = filepath.Join("..", "..", "..", "..", "examples", "camera-board.yaml")
 
-// slab: a plate three cells thick (two layers) heated in one corner of its
-// bottom face, and a lid one cell thick.
-const slab = `
-title: slab and lid
-ambient: {temperature: 20 degC}
-plates:
-  - id: slab
-    size: [20 mm, 10 mm]
-    cells: [4, 2]
-    layers:
-      - {thickness: 1 mm, conductivity: 200 W/(m K), through_cells: 2}
-      - {thickness: 2 mm, conductivity: 1 W/(m K)}
-    faces:
-      - {face: top, to: ambient, h: 10 W/(m2 K)}
-      - {face: bottom, to: ambient, h: 5 W/(m2 K)}
-    heat:
-      - {face: bottom, region: [0 mm, 0 mm, 5 mm, 5 mm], power: 0.05 W}
-  - id: lid
-    size: [10 mm, 10 mm]
-    cells: [2, 2]
-    material: copper-c110
-    thickness: 1 mm
-    faces:
-      - {face: top, to: ambient, h: 10 W/(m2 K)}
-`
+// slab is testdata/slab-and-lid.yaml: a plate three cells thick heated in
+// one corner of its bottom face, and a copper lid one cell thick.
+var slab = readTestdata("slab-and-lid.yaml")
 
 // plateGraph runs "heatgraph graph" and returns the file written to out
 // (nil when there is none), standard error and the error.
@@ -241,4 +219,13 @@ func TestPlateFlagsToOptions(t *testing.T) {
 		assert.Equal(t, c.layerSet, got.LayerSet, c.args)
 		assert.Equal(t, c.through, got.Through, c.args)
 	}
+}
+
+// readTestdata returns a file of the repository's testdata folder.
+func readTestdata(name string) string {
+	data, err := os.ReadFile(filepath.Join("..", "..", "..", "..", "testdata", name))
+	if err != nil {
+		panic(err)
+	}
+	return string(data)
 }
