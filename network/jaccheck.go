@@ -4,8 +4,6 @@ import (
 	"fmt"
 	"math"
 	"sort"
-
-	"github.com/heatgraph/heatgraph/sparse"
 )
 
 // JacobianEntry is one entry of the assembled Jacobian compared with its
@@ -91,7 +89,8 @@ func (net *Network) CheckJacobian(x []float64, worst int) (*JacobianCheck, error
 		return nil
 	}
 	// Columns of the stamped Jacobian: the transpose's rows.
-	colPtr, colRow, colVal := transpose(jac)
+	t := jac.Transpose()
+	colPtr, colRow, colVal := t.RowPtr, t.Col, t.Val
 	type pos struct{ i, j int }
 	var all []JacobianEntry
 	var at []pos
@@ -219,29 +218,6 @@ func directionSign(r, j int) float64 {
 		return 1
 	}
 	return -1
-}
-
-// transpose returns the columns of m: for column j, the rows
-// colRow[colPtr[j]:colPtr[j+1]] with values colVal.
-func transpose(m *sparse.Matrix) (colPtr, colRow []int, colVal []float64) {
-	colPtr = make([]int, m.N+1)
-	for _, c := range m.Col {
-		colPtr[c+1]++
-	}
-	for j := 0; j < m.N; j++ {
-		colPtr[j+1] += colPtr[j]
-	}
-	next := append([]int(nil), colPtr[:m.N]...)
-	colRow = make([]int, len(m.Col))
-	colVal = make([]float64, len(m.Col))
-	for i := 0; i < m.N; i++ {
-		for k := m.RowPtr[i]; k < m.RowPtr[i+1]; k++ {
-			c := m.Col[k]
-			colRow[next[c]], colVal[next[c]] = i, m.Val[k]
-			next[c]++
-		}
-	}
-	return colPtr, colRow, colVal
 }
 
 // OffKinks returns x moved off the points where correlations have a kink:

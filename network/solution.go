@@ -115,14 +115,7 @@ func (net *Network) Solution(x []float64) *Solution {
 		r := NodeResult{ID: n.ID, Kind: n.Kind, Temperature: sol.T[i], Power: n.Power, Limit: n.Limit, HasLimit: n.HasLimit, Line: n.Line}
 		if n.HasLimit {
 			r.Margin = n.Limit - sol.T[i]
-			switch {
-			case r.Margin < 0:
-				r.Status = Over
-			case r.Margin < margin:
-				r.Status = Tight
-			default:
-				r.Status = OK
-			}
+			r.Status = verdict(r.Margin, margin)
 		}
 		sol.Nodes = append(sol.Nodes, r)
 	}

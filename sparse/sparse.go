@@ -270,6 +270,26 @@ func (m *Matrix) MulVec(dst, x []float64) {
 	inBlocks(m.N, func(_, lo, hi int) { mulRows(m.RowPtr, m.Col, m.Val, dst, x, lo, hi) })
 }
 
+// Transpose returns mᵀ, its rows sorted as every matrix's are.
+func (m *Matrix) Transpose() *Matrix {
+	t := &Matrix{N: m.N, RowPtr: make([]int, m.N+1), Col: make([]int, len(m.Col)), Val: make([]float64, len(m.Val))}
+	for _, c := range m.Col {
+		t.RowPtr[c+1]++
+	}
+	for j := 0; j < m.N; j++ {
+		t.RowPtr[j+1] += t.RowPtr[j]
+	}
+	next := append([]int(nil), t.RowPtr[:m.N]...)
+	for i := 0; i < m.N; i++ {
+		for k := m.RowPtr[i]; k < m.RowPtr[i+1]; k++ {
+			c := m.Col[k]
+			t.Col[next[c]], t.Val[next[c]] = i, m.Val[k]
+			next[c]++
+		}
+	}
+	return t
+}
+
 // Clone returns a deep copy of m.
 func (m *Matrix) Clone() *Matrix {
 	return &Matrix{

@@ -68,3 +68,30 @@ func TestIndexLongRow(t *testing.T) {
 		}
 	}
 }
+
+// Transpose swaps every entry's row and column and keeps rows sorted.
+func TestTranspose(t *testing.T) {
+	b := NewBuilder(3)
+	for _, e := range [][2]int{{0, 1}, {0, 2}, {1, 0}, {2, 1}} {
+		b.Mark(e[0], e[1])
+	}
+	m := b.Build()
+	m.Add(0, 1, 2)
+	m.Add(0, 2, 3)
+	m.Add(1, 0, 4)
+	m.Add(2, 1, 5)
+	m.Add(1, 1, 6)
+	tr := m.Transpose()
+	for i := 0; i < 3; i++ {
+		for j := 0; j < 3; j++ {
+			if tr.At(i, j) != m.At(j, i) {
+				t.Errorf("(%d, %d): %g, want %g", i, j, tr.At(i, j), m.At(j, i))
+			}
+		}
+		for k := tr.RowPtr[i] + 1; k < tr.RowPtr[i+1]; k++ {
+			if tr.Col[k] <= tr.Col[k-1] {
+				t.Errorf("row %d not sorted: %v", i, tr.Col[tr.RowPtr[i]:tr.RowPtr[i+1]])
+			}
+		}
+	}
+}

@@ -58,7 +58,7 @@ func (f *sparseLU) solve(b []float64, trans bool) ([]float64, error) {
 	lu := f.a
 	if trans {
 		if f.at == nil {
-			at, err := luOf(transposed(f.m))
+			at, err := luOf(f.m.Transpose())
 			if err != nil {
 				return nil, err
 			}
@@ -71,24 +71,6 @@ func (f *sparseLU) solve(b []float64, trans bool) ([]float64, error) {
 		return nil, err
 	}
 	return x, nil
-}
-
-// transposed returns Aᵀ in compressed rows.
-func transposed(a *sparse.Matrix) *sparse.Matrix {
-	b := sparse.NewBuilder(a.N)
-	b.Grow(a.NNZ())
-	for i := 0; i < a.N; i++ {
-		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
-			b.Mark(a.Col[k], i)
-		}
-	}
-	t := b.Build()
-	for i := 0; i < a.N; i++ {
-		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
-			t.Add(a.Col[k], i, a.Val[k])
-		}
-	}
-	return t
 }
 
 // denseLU is an LU factorization of a dense copy of a sparse matrix, for
