@@ -59,14 +59,12 @@ func (net *Network) buildPlates(m *Model) Problems {
 	for _, bp := range net.plates {
 		s := bp.spec
 		bp.base = len(net.Vars)
-		nz := 0
 		layers := make([]elements.PlateLayer, len(s.Layers))
 		for i, l := range s.Layers {
 			layers[i] = elements.PlateLayer{Thickness: l.Thickness, KIn: l.KIn, KThrough: l.KThrough, RhoC: l.RhoC, Cells: l.Cells, FaceAtCentre: l.Board}
-			nz += l.Cells
 		}
-		bp.nz = nz
-		cells := s.NX * s.NY * nz
+		bp.nz = s.ThroughCells()
+		cells := s.NX * s.NY * bp.nz
 		net.Vars = append(net.Vars, make([]Variable, cells)...)
 		for c := 0; c < cells; c++ {
 			net.Vars[bp.base+c] = Variable{Kind: TemperatureVar, Owner: s.ID, Value: m.Ambient.Temperature, Cell: int32(c + 1)}

@@ -1,7 +1,6 @@
 package network
 
 import (
-	"errors"
 	"fmt"
 	"math"
 	"strings"
@@ -171,11 +170,7 @@ func (r *reader) readPlates(n *yaml.Node, m *Model, ids map[string]nodeRef) []Pl
 		} else if l, ok := r.readLayer(o, m); ok {
 			p.Layers = []PlateLayerSpec{l}
 		}
-		through := 0
-		for _, l := range p.Layers {
-			through += l.Cells
-		}
-		if through > 0 && p.NX > 0 && p.NY > 0 {
+		if through := p.ThroughCells(); through > 0 && p.NX > 0 && p.NY > 0 {
 			total += p.NX * p.NY * (through - 1)
 		}
 		if o.has("faces") {
@@ -536,12 +531,7 @@ func (o *object) lengths(key string, n int, need bool) ([]float64, bool) {
 		}
 		x, err := units.Parse(c.Value, units.Length)
 		if err != nil {
-			var ue *units.Error
-			if errors.As(err, &ue) {
-				o.r.addf(c, o.field(key), "%s", ue.Error())
-			} else {
-				o.r.addf(c, o.field(key), "%v", err)
-			}
+			o.r.addf(c, o.field(key), "%s", unitMessage(err))
 			return nil, false
 		}
 		if math.IsNaN(x) || math.IsInf(x, 0) || x < 0 || x > 1e4 {
@@ -595,12 +585,19 @@ func (m *Model) plate(id string) *PlateSpec {
 // Cells returns the number of cells the model's plates mesh into.
 func (m *Model) Cells() int {
 	n := 0
-	for _, p := range m.Plates {
-		through := 0
-		for _, l := range p.Layers {
-			through += l.Cells
-		}
-		n += p.NX * p.NY * through
+	for i := range m.Plates {
+		p := &m.Plates[i]
+		n += p.NX * p.NY * p.ThroughCells()
+	}
+	return n
+}
+
+// ThroughCells returns the plate's cells through its thickness, over all
+// its layers.
+func (p *PlateSpec) ThroughCells() int {
+	n := 0
+	for _, l := range p.Layers {
+		n += l.Cells
 	}
 	return n
 }

@@ -1,7 +1,6 @@
 package network
 
 import (
-	"errors"
 	"fmt"
 	"math"
 	"regexp"
@@ -283,12 +282,7 @@ func (o *object) quantity(key string, kind units.Kind) (float64, bool) {
 	}
 	x, err := units.Parse(v.Value, kind)
 	if err != nil {
-		var ue *units.Error
-		if errors.As(err, &ue) {
-			o.r.addf(v, o.field(key), "%s", ue.Error())
-		} else {
-			o.r.addf(v, o.field(key), "%v", err)
-		}
+		o.r.addf(v, o.field(key), "%s", unitMessage(err))
 		return 0, false
 	}
 	return x, true
