@@ -88,20 +88,13 @@ func registerVarying(t *testing.T, name string, wrong bool) {
 
 func TestNewLinkKindInOneFile(t *testing.T) {
 	registerVarying(t, "warming-bar", false)
-	m, err := Parse("bar.yaml", []byte(`
+	net := buildBar(t, `
 ambient: {temperature: 20 degC}
 nodes:
   - {id: hot, power: 10 W}
 links:
   - {kind: warming-bar, from: hot, to: ambient, conductance: 0.5 W/K, coefficient: 0.004, reference: 20 degC}
-`))
-	if err != nil {
-		t.Fatal(err)
-	}
-	net, err := Build(m)
-	if err != nil {
-		t.Fatal(err)
-	}
+`)
 	p := net.Steady()
 	r := solve.Newton(p, p.InitialGuess(), solve.Settings{})
 	if !r.Reason.Converged() {
@@ -138,20 +131,13 @@ links:
 // wrong.
 func TestJacobianCheckCatchesWrongDerivative(t *testing.T) {
 	registerVarying(t, "wrong-bar", true)
-	m, err := Parse("bar.yaml", []byte(`
+	net := buildBar(t, `
 ambient: {temperature: 20 degC}
 nodes:
   - {id: hot, power: 10 W}
 links:
   - {kind: wrong-bar, from: hot, to: ambient, conductance: 0.5 W/K, coefficient: 0.004, reference: 20 degC}
-`))
-	if err != nil {
-		t.Fatal(err)
-	}
-	net, err := Build(m)
-	if err != nil {
-		t.Fatal(err)
-	}
+`)
 	c, err := net.CheckJacobian([]float64{313.15}, 3)
 	if err != nil {
 		t.Fatal(err)
@@ -167,7 +153,7 @@ links:
 // entries pass.
 func TestJacobianCheckCatchesWrongDerivativeBesidePlate(t *testing.T) {
 	registerVarying(t, "wrong-bar-2", true)
-	m, err := Parse("bar.yaml", []byte(`
+	net := buildBar(t, `
 ambient: {temperature: 20 degC}
 nodes:
   - {id: hot, power: 10 W}
@@ -182,14 +168,7 @@ plates:
       - {face: top, to: ambient, h: 10 W/(m2 K), emissivity: 0.8}
 links:
   - {kind: wrong-bar-2, from: hot, to: ambient, conductance: 0.5 W/K, coefficient: 0.004, reference: 20 degC}
-`))
-	if err != nil {
-		t.Fatal(err)
-	}
-	net, err := Build(m)
-	if err != nil {
-		t.Fatal(err)
-	}
+`)
 	p := net.Steady()
 	if p.Size() <= FullCheckUnknowns {
 		t.Fatalf("%d unknowns: the test needs more than %d", p.Size(), FullCheckUnknowns)
@@ -208,4 +187,18 @@ links:
 			t.Errorf("a plate entry fails: %+v", e)
 		}
 	}
+}
+
+// buildBar reads and builds a model text, failing the test on any problem.
+func buildBar(t *testing.T, text string) *Network {
+	t.Helper()
+	m, err := Parse("bar.yaml", []byte(text))
+	if err != nil {
+		t.Fatal(err)
+	}
+	net, err := Build(m)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return net
 }
