@@ -151,7 +151,7 @@ func (net *Network) buildPlates(m *Model) Problems {
 		if len(pl.Joins) > 0 {
 			to = pl.Joins[0].Node
 		}
-		net.Links = append(net.Links, Link{ID: s.ID, Kind: "plate", From: bp.view, To: to, Note: s.Note, Line: s.Line, Element: el})
+		net.Links = append(net.Links, Link{ID: s.ID, Kind: string(Plate), From: bp.view, To: to, Note: s.Note, Line: s.Line, Element: el})
 	}
 	return problems
 }

@@ -19,8 +19,18 @@ import (
 // plateKind is the node kind of a meshed plate.
 const plateKind = network.Plate
 
-// plateLink is the kind of the link that stands for a plate's element.
-const plateLink = "plate"
+// plateNodes returns the ids of the nodes that stand for meshed plates: a
+// link from one of them is the plate's own element, whose joins the
+// plates section lists.
+func plateNodes(sol *network.Solution) map[string]bool {
+	ids := map[string]bool{}
+	for _, n := range sol.Nodes {
+		if n.Kind == plateKind {
+			ids[n.ID] = true
+		}
+	}
+	return ids
+}
 
 // checkPlate reports what makes a plate result unfit to draw or write.
 func checkPlate(p *network.PlateResult) error {

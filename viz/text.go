@@ -80,8 +80,9 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 		kw = max(kw, len(l.Kind))
 	}
 	tw.printf("\n%-*s  %-*s  %10s  %s\n", idw, "link", kw, "kind", "heat [W]", "from → to (positive heat flows this way)")
+	plates := plateNodes(sol)
 	for _, l := range sol.Links {
-		if l.Kind == plateLink {
+		if plates[l.From] {
 			// A plate's joins are listed with the plate, below.
 			out := 0.0
 			for _, p := range l.Paths {
@@ -138,6 +139,7 @@ func WriteText(w io.Writer, sol *network.Solution, run Run, order Order) error {
 // checked by hand.
 func writeDetails(tw *textWriter, sol *network.Solution) {
 	first := true
+	plates := plateNodes(sol)
 	for _, l := range sol.Links {
 		var texts []string
 		var nums []string
@@ -149,7 +151,7 @@ func writeDetails(tw *textWriter, sol *network.Solution) {
 				nums = append(nums, detailText(d))
 			}
 		}
-		if len(texts) == 0 || l.Kind == plateLink {
+		if len(texts) == 0 || plates[l.From] {
 			continue
 		}
 		if first {
