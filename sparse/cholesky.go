@@ -85,16 +85,10 @@ func (c *Cholesky) Factorize(a *Matrix) error {
 		}
 	}
 	s := c.sym
-	if !s.samePattern(a) {
-		return ErrPattern
-	}
-	if err := checkFinite(a); err != nil {
+	if err := s.accepts(a); err != nil {
 		return err
 	}
-	tol := c.PivotTol
-	if tol == 0 {
-		tol = DefaultPivotTol
-	}
+	tol := pivotTol(c.PivotTol)
 	c.scales = rowScales(a, c.scales)
 	n := s.N
 	next := c.next // next free slot of each column

@@ -104,16 +104,10 @@ func (f *LU) Factorize(a *Matrix) error {
 		}
 	}
 	s := f.sym
-	if !s.samePattern(a) {
-		return ErrPattern
-	}
-	if err := checkFinite(a); err != nil {
+	if err := s.accepts(a); err != nil {
 		return err
 	}
-	tol := f.PivotTol
-	if tol == 0 {
-		tol = DefaultPivotTol
-	}
+	tol := pivotTol(f.PivotTol)
 	maxMul := f.MaxMultiplier
 	if maxMul == 0 {
 		maxMul = DefaultMaxMultiplier

@@ -149,16 +149,10 @@ func (f *Supernodal) Factorize(a *Matrix) error {
 		}
 	}
 	s := f.sym
-	if !s.samePattern(a) {
-		return ErrPattern
-	}
-	if err := checkFinite(a); err != nil {
+	if err := s.accepts(a); err != nil {
 		return err
 	}
-	tol := f.PivotTol
-	if tol == 0 {
-		tol = DefaultPivotTol
-	}
+	tol := pivotTol(f.PivotTol)
 	f.scales = rowScales(a, f.scales)
 	ns := len(f.super) - 1
 	clear(f.val)

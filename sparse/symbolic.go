@@ -199,3 +199,21 @@ func (s *Symbolic) ereach(k int, flag, path, stack []int) int {
 	}
 	return top
 }
+
+// accepts checks that a has the analysed pattern and finite values, as
+// every factorization needs.
+func (s *Symbolic) accepts(a *Matrix) error {
+	if !s.samePattern(a) {
+		return ErrPattern
+	}
+	return checkFinite(a)
+}
+
+// pivotTol returns the pivot tolerance tol, or DefaultPivotTol when it is
+// zero.
+func pivotTol(tol float64) float64 {
+	if tol == 0 {
+		return DefaultPivotTol
+	}
+	return tol
+}
