@@ -710,27 +710,3 @@ func (c csr) mulVecAdd(dst, x []float64) {
 		}
 	})
 }
-
-// blockSweep is gaussSeidel on the block [lo, hi) of a hybrid sweep.
-func (l *amgLevel) blockSweep(x, b []float64, forward bool, lo, hi int, snap []float64) {
-	a := l.a
-	i, step, end := lo, 1, hi
-	if !forward {
-		i, step, end = hi-1, -1, lo-1
-	}
-	for ; i != end; i += step {
-		s := b[i]
-		k0, k1 := a.RowPtr[i], a.RowPtr[i+1]
-		cols := a.Col[k0:k1]
-		vals := a.Val[k0:k1]
-		vals = vals[:len(cols)]
-		for k, c := range cols {
-			if c >= lo && c < hi {
-				s -= vals[k] * x[c]
-			} else if snap != nil {
-				s -= vals[k] * snap[c]
-			}
-		}
-		x[i] += s / a.Val[l.diag[i]]
-	}
-}
