@@ -233,13 +233,6 @@ type Reporter interface {
 	Report(s *State) Report
 }
 
-// pair is the element of every two-node link: rows and vars are the two
-// nodes, in order.
-type pair struct{ A, B int }
-
-func (p pair) Rows() []int { return []int{p.A, p.B} }
-func (p pair) Vars() []int { return []int{p.A, p.B} }
-
 // stampPair stamps a heat flow q from row/var 0 to row/var 1 of l, with its
 // derivatives dqa = ∂q/∂x₀ and dqb = ∂q/∂x₁: every two-node link is this.
 func stampPair(l *Local, q, dqa, dqb float64) {

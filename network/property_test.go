@@ -220,16 +220,6 @@ func drawNet(t *rapid.T) randomNet {
 	return rn
 }
 
-// index returns the position of the node id among nodes.
-func index(nodes []randomNode, id string) int {
-	for i, n := range nodes {
-		if n.id == id {
-			return i
-		}
-	}
-	panic("no node " + id)
-}
-
 // yaml writes the network as a model file, with the nodes and links in the
 // orders given (nil: as drawn).
 func (rn randomNet) yaml(nodeOrder, linkOrder []int) string {

@@ -37,16 +37,6 @@ func NewBuilder(n int) *Builder {
 	return &Builder{n: n}
 }
 
-// Grow makes room for k more marks, so that marking a known number of
-// entries does not reallocate.
-func (b *Builder) Grow(k int) {
-	if b.start != nil {
-		return
-	}
-	b.rows = slices.Grow(b.rows, k)
-	b.cols = slices.Grow(b.cols, k)
-}
-
 // Count announces a mark in row i, to be made later. Either every mark's
 // row is counted before the first Mark, or none is.
 func (b *Builder) Count(i int) {

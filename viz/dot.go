@@ -274,15 +274,6 @@ func (d *dotBuilder) check(err error) {
 	}
 }
 
-// splitRow is the legend's line on fixed nodes drawn more than once.
-func splitRow(split bool) string {
-	if !split {
-		return ""
-	}
-	return `<tr><td colspan="2" align="left">(a fixed node is drawn</td></tr>` +
-		`<tr><td colspan="2" align="left">at each of its links)</td></tr>`
-}
-
 func nodeFill(n network.NodeResult, c Colouring, tMin, tMax float64, margins scale) rgb {
 	if n.Kind == network.Fixed {
 		return fixedFill

@@ -122,16 +122,6 @@ func compile(ctx context.Context, cache wazero.CompilationCache) (r *engineRunti
 	return &engineRuntime{rt: rt, compiled: compiled}, nil
 }
 
-// CacheDir returns the folder in which compiled code is cached, "" when it
-// is compiled in memory. It starts the engine if it has not started yet.
-func CacheDir() (string, error) {
-	r, err := start()
-	if err != nil {
-		return "", err
-	}
-	return r.cacheDir, nil
-}
-
 // Render lays out DOT source with the dot layout and returns it in format
 // (SVG, XDOT or DOT). It stops with an error wrapping ErrLayoutTimeout
 // when ctx ends first.
