@@ -1,5 +1,7 @@
 package elements
 
+import "github.com/heatgraph/heatgraph/internal/bigmem"
+
 // Env holds the conditions shared by every element.
 type Env struct {
 	Pressure float64 // ambient absolute pressure, Pa; air inside the box is at this pressure too
@@ -113,9 +115,9 @@ func (l *Local) E(k int, d float64) {
 // NewPatternedLocal returns a Local for a Patterned element of nr rows, nv
 // vars and ne entries, with derivatives when jac is true.
 func NewPatternedLocal(nr, nv, ne int, jac bool) *Local {
-	l := &Local{R: make([]float64, nr), NV: nv}
+	l := &Local{R: bigmem.Make[float64](nr), NV: nv}
 	if jac {
-		l.J = make([]float64, ne)
+		l.J = bigmem.Make[float64](ne)
 	}
 	return l
 }
@@ -124,7 +126,7 @@ func NewPatternedLocal(nr, nv, ne int, jac bool) *Local {
 // element of nr rows, nv vars and ne entries, reusing the storage.
 func (l *Local) ResetEntries(nr, nv, ne int, jac bool) {
 	if cap(l.R) < nr {
-		l.R = make([]float64, nr)
+		l.R = bigmem.Make[float64](nr)
 	}
 	l.R = l.R[:nr]
 	clear(l.R)
@@ -136,7 +138,7 @@ func (l *Local) ResetEntries(nr, nv, ne int, jac bool) {
 		return
 	}
 	if cap(l.J) < ne {
-		l.J = make([]float64, ne)
+		l.J = bigmem.Make[float64](ne)
 	}
 	l.J = l.J[:ne]
 	clear(l.J)
@@ -148,9 +150,9 @@ func (l *Local) Needs(v int) bool { return l.J != nil && (l.Given == nil || !l.G
 // NewLocal returns a Local for an element of nr rows and nv vars, with
 // derivatives when jac is true.
 func NewLocal(nr, nv int, jac bool) *Local {
-	l := &Local{R: make([]float64, nr), NV: nv}
+	l := &Local{R: bigmem.Make[float64](nr), NV: nv}
 	if jac {
-		l.J = make([]float64, nr*nv)
+		l.J = bigmem.Make[float64](nr * nv)
 	}
 	return l
 }

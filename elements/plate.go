@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"sort"
+
+	"github.com/heatgraph/heatgraph/internal/bigmem"
 )
 
 // PlateLayer is one layer of a meshed plate, bottom to top: a board's
@@ -423,7 +425,7 @@ func (p *Plate) placeRegion(f Face, r Rect) (region, error) {
 		return region{}, fmt.Errorf("region (%g, %g)–(%g, %g) m overlaps no cell of the %s face", r.X0, r.Y0, r.X1, r.Y1, f)
 	}
 	g := region{du: r.X1 - r.X0, dv: r.Y1 - r.Y0,
-		cells: make([]int32, len(us)*len(vs)), area: make([]float64, len(us)*len(vs))}
+		cells: bigmem.Make[int32](len(us) * len(vs)), area: bigmem.Make[float64](len(us) * len(vs))}
 	// cell(u, v) is linear in u and v on every face.
 	c0 := cell(0, 0)
 	du, dv := cell(min(1, len(ue)-2), 0)-c0, cell(0, min(1, len(ve)-2))-c0
@@ -557,7 +559,7 @@ func (p *Plate) HeatCapacity() float64 {
 
 // Rows returns the cells' variables in order, then each join node once.
 func (p *Plate) Rows() []int {
-	r := make([]int, p.n+len(p.nodes))
+	r := bigmem.Make[int](p.n + len(p.nodes))
 	for c := range p.n {
 		r[c] = p.Base + c
 	}
@@ -776,8 +778,8 @@ func NewAreaHeat(p *Plate, f Face, r Rect, q float64, of TimeFunc) (*AreaHeat, e
 		return nil, fmt.Errorf("area heat on plate %q: %w", p.Name, err)
 	}
 	h := &AreaHeat{Plate: p, Face: f, Region: r, Q: q, Of: of, du: g.du, dv: g.dv, clip: g.clipped}
-	h.vars = make([]int, len(g.cells))
-	h.frac = make([]float64, len(g.cells))
+	h.vars = bigmem.Make[int](len(g.cells))
+	h.frac = bigmem.Make[float64](len(g.cells))
 	for i, c := range g.cells {
 		h.vars[i] = p.Base + int(c)
 		h.frac[i] = g.area[i] / g.total

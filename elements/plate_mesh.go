@@ -4,6 +4,8 @@ import (
 	"runtime"
 	"sort"
 	"sync"
+
+	"github.com/heatgraph/heatgraph/internal/bigmem"
 )
 
 // The Jacobian entries of a plate, in order: for each cell, line by line
@@ -17,8 +19,8 @@ import (
 // and Vars, built anew at each call (EachEntry lists them without storing
 // them).
 func (p *Plate) Entries() (er, ev []int32) {
-	er = make([]int32, p.nEntries)
-	ev = make([]int32, p.nEntries)
+	er = bigmem.Make[int32](p.nEntries)
+	ev = bigmem.Make[int32](p.nEntries)
 	k := 0
 	p.EachEntry(func(r, v int32) {
 		er[k], ev[k] = r, v

@@ -6,6 +6,7 @@ import (
 	"sync"
 
 	"github.com/heatgraph/heatgraph/elements"
+	"github.com/heatgraph/heatgraph/internal/bigmem"
 	"github.com/heatgraph/heatgraph/sparse"
 )
 
@@ -80,18 +81,18 @@ func (net *Network) allElements() []elements.Element {
 func (net *Network) assemble() *assembly {
 	a := &assembly{elems: net.allElements()}
 	n := len(net.unknown)
-	a.temp = make([]bool, n)
+	a.temp = bigmem.Make[bool](n)
 	for u, v := range net.unknown {
 		a.temp[u] = net.Vars[v].Kind == TemperatureVar
 	}
 	a.runs = unknownRuns(net.unknown)
 	b := sparse.NewBuilder(n)
 	ne := len(a.elems)
-	a.entries = make([]int, ne)
-	a.rowStart = make([]int32, ne+1)
-	a.slotStart = make([]int32, ne+1)
-	a.nvars = make([]int32, ne)
-	a.varStart = make([]int32, ne+1)
+	a.entries = bigmem.Make[int](ne)
+	a.rowStart = bigmem.Make[int32](ne + 1)
+	a.slotStart = bigmem.Make[int32](ne + 1)
+	a.nvars = bigmem.Make[int32](ne)
+	a.varStart = bigmem.Make[int32](ne + 1)
 	// Count first, so that nothing below reallocates and the builder
 	// puts each mark straight into its row: a meshed plate has millions
 	// of entries.
@@ -145,9 +146,9 @@ func (net *Network) assemble() *assembly {
 		}
 		blocks[e] = bl
 	}
-	a.slots = make([]int32, total)
-	a.rows = make([]int32, a.rowStart[ne])
-	a.given = make([]bool, a.varStart[ne])
+	a.slots = bigmem.Make[int32](total)
+	a.rows = bigmem.Make[int32](int(a.rowStart[ne]))
+	a.given = bigmem.Make[bool](int(a.varStart[ne]))
 	// Mark: slots holds each entry's mark number for now, −1 where its
 	// row or its var is given.
 	mark := func(k int, fr, fv int) {

@@ -9,6 +9,7 @@ import (
 	"github.com/heatgraph/heatgraph/elements"
 	"github.com/heatgraph/heatgraph/elements/air"
 	"github.com/heatgraph/heatgraph/elements/dual"
+	"github.com/heatgraph/heatgraph/internal/bigmem"
 )
 
 // Node is a node of the assembled network. Its temperature is the
@@ -179,7 +180,8 @@ func Build(m *Model) (*Network, error) {
 	if len(problems) > 0 {
 		return nil, problems.sorted()
 	}
-	net.free = make([]int, len(net.Vars))
+	net.free = bigmem.Make[int](len(net.Vars))
+	net.unknown = bigmem.MakeCap[int](0, len(net.Vars))
 	for i := range net.Vars {
 		if net.Vars[i].Given {
 			net.free[i] = -1

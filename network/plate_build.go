@@ -4,6 +4,7 @@ import (
 	"fmt"
 
 	"github.com/heatgraph/heatgraph/elements"
+	"github.com/heatgraph/heatgraph/internal/bigmem"
 )
 
 // builtPlate is a plate of the network: its element, the node that stands
@@ -65,7 +66,10 @@ func (net *Network) buildPlates(m *Model) Problems {
 		}
 		bp.nz = s.ThroughCells()
 		cells := s.NX * s.NY * bp.nz
-		net.Vars = append(net.Vars, make([]Variable, cells)...)
+		if len(net.Vars)+cells > cap(net.Vars) {
+			net.Vars = append(bigmem.MakeCap[Variable](0, len(net.Vars)+cells), net.Vars...)
+		}
+		net.Vars = net.Vars[:len(net.Vars)+cells]
 		for c := 0; c < cells; c++ {
 			net.Vars[bp.base+c] = Variable{Kind: TemperatureVar, Owner: s.ID, Value: m.Ambient.Temperature, Cell: int32(c + 1)}
 		}

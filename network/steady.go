@@ -5,6 +5,7 @@ import (
 	"math"
 
 	"github.com/heatgraph/heatgraph/elements"
+	"github.com/heatgraph/heatgraph/internal/bigmem"
 	"github.com/heatgraph/heatgraph/solve"
 	"github.com/heatgraph/heatgraph/sparse"
 )
@@ -30,9 +31,9 @@ type Steady struct {
 func (net *Network) Steady() *Steady {
 	p := &Steady{
 		net: net,
-		x:   make([]float64, len(net.Vars)),
-		sum: make([]float64, len(net.Vars)),
-		mag: make([]float64, len(net.Vars)),
+		x:   bigmem.Make[float64](len(net.Vars)),
+		sum: bigmem.Make[float64](len(net.Vars)),
+		mag: bigmem.Make[float64](len(net.Vars)),
 		ev:  evaluator{a: net.asm},
 	}
 	for i, v := range net.Vars {
@@ -67,7 +68,7 @@ func (p *Steady) Variable(i int) int { return p.net.unknown[i] }
 // must not be changed.
 func (p *Steady) Pattern() *sparse.Matrix {
 	m := p.net.asm.pattern
-	return &sparse.Matrix{N: m.N, RowPtr: m.RowPtr, Col: m.Col, Val: make([]float64, len(m.Col))}
+	return &sparse.Matrix{N: m.N, RowPtr: m.RowPtr, Col: m.Col, Val: bigmem.Make[float64](len(m.Col))}
 }
 
 // Jacobian returns a matrix with the Jacobian's pattern.

@@ -7,6 +7,7 @@ import (
 	"runtime"
 	"strings"
 
+	"github.com/heatgraph/heatgraph/internal/bigmem"
 	"github.com/heatgraph/heatgraph/sparse"
 )
 
@@ -101,10 +102,10 @@ type KindResult struct {
 func Newton(p Problem, x0 []float64, s Settings) (res Result) {
 	s = s.withDefaults()
 	n := p.Size()
-	x := append([]float64(nil), x0...)
+	x := append(bigmem.MakeCap[float64](0, len(x0)), x0...)
 	res = Result{X: x, Worst: -1}
 	kinds := p.Kinds()
-	kindOf := make([]int, n)
+	kindOf := bigmem.Make[int](n)
 	for i := range kindOf {
 		kindOf[i] = p.KindOf(i)
 	}
@@ -114,16 +115,16 @@ func Newton(p Problem, x0 []float64, s Settings) (res Result) {
 	}
 	w := &work{
 		p: p, s: s, kinds: kinds, kindOf: kindOf,
-		f: make([]float64, n), mag: make([]float64, n),
-		ft: make([]float64, n), magt: make([]float64, n),
-		wt: make([]float64, n), step: make([]float64, n), rhs: make([]float64, n),
-		trial: make([]float64, n), d: make([]float64, n), xnow: x,
+		f: bigmem.Make[float64](n), mag: bigmem.Make[float64](n),
+		ft: bigmem.Make[float64](n), magt: bigmem.Make[float64](n),
+		wt: bigmem.Make[float64](n), step: bigmem.Make[float64](n), rhs: bigmem.Make[float64](n),
+		trial: bigmem.Make[float64](n), d: bigmem.Make[float64](n), xnow: x,
 	}
 	defer func() { res.LinearIterations = w.linear }()
 	w.jac = p.Pattern()
 	w.jact = samePattern(w.jac)
 	w.shift = samePattern(w.jac)
-	w.diag = make([]int, n)
+	w.diag = bigmem.Make[int](n)
 	for i := range w.diag {
 		w.diag[i] = w.jac.Index(i, i)
 	}
@@ -583,7 +584,7 @@ func (w *work) force(x []float64) {
 
 // samePattern returns a matrix that shares m's pattern, values zero.
 func samePattern(m *sparse.Matrix) *sparse.Matrix {
-	return &sparse.Matrix{N: m.N, RowPtr: m.RowPtr, Col: m.Col, Val: make([]float64, len(m.Val))}
+	return &sparse.Matrix{N: m.N, RowPtr: m.RowPtr, Col: m.Col, Val: bigmem.Make[float64](len(m.Val))}
 }
 
 // scaleInto sets dst = D·src·D, on two halves of the rows at once for a
@@ -615,7 +616,7 @@ func (w *work) scaleInto(dst, src *sparse.Matrix) {
 func (w *work) pseudoStep(x []float64) error {
 	n := len(w.f)
 	if w.capacity == nil {
-		w.capacity = make([]float64, n)
+		w.capacity = bigmem.Make[float64](n)
 	}
 	clear(w.capacity)
 	if c, ok := w.p.(Capacitive); ok {
@@ -645,7 +646,7 @@ func (w *work) pseudoStep(x []float64) error {
 	// However small the residual, each row's shift stays above 1e-10 of
 	// the row's largest entry, so that the shifted matrix is regular.
 	if len(w.minShift) != n {
-		w.minShift = make([]float64, n)
+		w.minShift = bigmem.Make[float64](n)
 	}
 	for i := 0; i < n; i++ {
 		big := 0.0

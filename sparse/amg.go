@@ -4,6 +4,8 @@ import (
 	"fmt"
 	"math"
 	"slices"
+
+	"github.com/heatgraph/heatgraph/internal/bigmem"
 )
 
 // Defaults of the algebraic multigrid preconditioner.
@@ -199,7 +201,7 @@ func (m *AMG) Setup(a *Matrix, sign float64) error {
 		l.prolongation(depth < m.smoothed(), th)
 		cur = galerkin(l.r, cur, l.p)
 		n := l.a.N
-		l.x, l.b, l.res = make([]float64, n), make([]float64, n), make([]float64, n)
+		l.x, l.b, l.res = bigmem.Make[float64](n), bigmem.Make[float64](n), bigmem.Make[float64](n)
 		l.coarse = make([]float64, l.nagg)
 	}
 	last := m.levels[len(m.levels)-1]
@@ -208,20 +210,20 @@ func (m *AMG) Setup(a *Matrix, sign float64) error {
 	if err := m.coarse.Factorize(last.a); err != nil {
 		return fmt.Errorf("multigrid coarsest level of %d: %w", last.a.N, err)
 	}
-	m.cx = make([]float64, last.a.N)
+	m.cx = bigmem.Make[float64](last.a.N)
 	return nil
 }
 
 func (l *amgLevel) setDiag() error {
 	a := l.a
 	if len(l.diag) != a.N {
-		l.diag = make([]int, a.N)
+		l.diag = bigmem.Make[int](a.N)
 		for i := 0; i < a.N; i++ {
 			l.diag[i] = a.Index(i, i)
 		}
 	}
 	if len(l.inv) != a.N {
-		l.inv = make([]float64, a.N)
+		l.inv = bigmem.Make[float64](a.N)
 	}
 	for i := 0; i < a.N; i++ {
 		if l.diag[i] < 0 || a.Val[l.diag[i]] == 0 {
@@ -252,8 +254,8 @@ func (l *amgLevel) aggregate(theta float64) {
 	a := l.a
 	n := a.N
 	// Strong neighbours, symmetrised, in compressed rows.
-	sptr := make([]int, n+1)
-	sidx := make([]int32, 0, len(a.Col))
+	sptr := bigmem.Make[int](n + 1)
+	sidx := bigmem.MakeCap[int32](0, len(a.Col))
 	for i := 0; i < n; i++ {
 		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
 			if j := a.Col[k]; j != i && l.strong(i, k, theta) {
@@ -263,7 +265,7 @@ func (l *amgLevel) aggregate(theta float64) {
 		sptr[i+1] = len(sidx)
 	}
 	strong := func(i int) []int32 { return sidx[sptr[i]:sptr[i+1]] }
-	agg := make([]int, n)
+	agg := bigmem.Make[int](n)
 	for i := range agg {
 		agg[i] = -1
 	}
@@ -288,7 +290,7 @@ func (l *amgLevel) aggregate(theta float64) {
 		}
 		na++
 	}
-	pass1 := append([]int(nil), agg...)
+	pass1 := append(bigmem.MakeCap[int](0, len(agg)), agg...)
 	for i := 0; i < n; i++ { // pass 2
 		if agg[i] >= 0 {
 			continue
@@ -333,13 +335,13 @@ func (l *amgLevel) prolongation(smooth bool, theta float64) {
 	if smooth {
 		omega = 4.0 / 3.0 / l.spectralRadius()
 	}
-	p := csr{rows: n, cols: l.nagg, ptr: make([]int, n+1)}
+	p := csr{rows: n, cols: l.nagg, ptr: bigmem.Make[int](n + 1)}
 	// Each block of rows builds its part; the parts are joined in order.
 	var cols [blocks][]int32
 	var vals [blocks][]float64
 	inBlocks(n, func(b, lo, hi int) {
 		est := a.RowPtr[hi] - a.RowPtr[lo] + hi - lo
-		pc, pv := make([]int32, 0, est), make([]float64, 0, est)
+		pc, pv := bigmem.MakeCap[int32](0, est), bigmem.MakeCap[float64](0, est)
 		acc := make([]float64, l.nagg)
 		where := make([]int, l.nagg)
 		for i := range where {
@@ -410,7 +412,7 @@ func (l *amgLevel) prolongation(smooth bool, theta float64) {
 	for b := range cols {
 		total += len(cols[b])
 	}
-	p.col, p.val = make([]int32, 0, total), make([]float64, 0, total)
+	p.col, p.val = bigmem.MakeCap[int32](0, total), bigmem.MakeCap[float64](0, total)
 	for b := range cols {
 		lo, hi := split(n, b)
 		off := len(p.col)
@@ -438,8 +440,8 @@ func (l *amgLevel) spectralRadius() float64 {
 		}
 		gersh = math.Max(gersh, s/math.Abs(a.Val[l.diag[i]]))
 	}
-	x := make([]float64, n)
-	y := make([]float64, n)
+	x := bigmem.Make[float64](n)
+	y := bigmem.Make[float64](n)
 	for i := range x {
 		x[i] = 1 + float64(i%7)/7 - float64(i%3)/5
 	}
@@ -463,7 +465,7 @@ func (l *amgLevel) spectralRadius() float64 {
 }
 
 func (c csr) transpose() csr {
-	t := csr{rows: c.cols, cols: c.rows, ptr: make([]int, c.cols+1), col: make([]int32, len(c.col)), val: make([]float64, len(c.val))}
+	t := csr{rows: c.cols, cols: c.rows, ptr: bigmem.Make[int](c.cols + 1), col: bigmem.Make[int32](len(c.col)), val: bigmem.Make[float64](len(c.val))}
 	for _, j := range c.col {
 		t.ptr[j+1]++
 	}
@@ -486,7 +488,7 @@ func (c csr) transpose() csr {
 // counting pass sizes the result, a second pass fills it; both work on
 // blocks of rows in parallel.
 func mul[X int | int32](rows int, xptr []int, xcol []X, xval []float64, y csr) csr {
-	z := csr{rows: rows, cols: y.cols, ptr: make([]int, rows+1)}
+	z := csr{rows: rows, cols: y.cols, ptr: bigmem.Make[int](rows + 1)}
 	inBlocks(rows, func(_, lo, hi int) {
 		where := make([]int32, y.cols)
 		for i := range where {
@@ -508,8 +510,8 @@ func mul[X int | int32](rows int, xptr []int, xcol []X, xval []float64, y csr) c
 	for i := 0; i < rows; i++ {
 		z.ptr[i+1] += z.ptr[i]
 	}
-	z.col = make([]int32, z.ptr[rows])
-	z.val = make([]float64, z.ptr[rows])
+	z.col = bigmem.Make[int32](z.ptr[rows])
+	z.val = bigmem.Make[float64](z.ptr[rows])
 	inBlocks(rows, func(_, lo, hi int) {
 		where := make([]int32, y.cols)
 		for i := range where {
@@ -543,8 +545,8 @@ func mul[X int | int32](rows int, xptr []int, xcol []X, xval []float64, y csr) c
 func galerkin(r csr, a *Matrix, p csr) *Matrix {
 	ap := mul(a.N, a.RowPtr, a.Col, a.Val, p)
 	c := mul(r.rows, r.ptr, r.col, r.val, ap)
-	m := &Matrix{N: c.rows, RowPtr: make([]int, c.rows+1),
-		Col: make([]int, 0, len(c.col)+c.rows), Val: make([]float64, 0, len(c.col)+c.rows)}
+	m := &Matrix{N: c.rows, RowPtr: bigmem.Make[int](c.rows + 1),
+		Col: bigmem.MakeCap[int](0, len(c.col)+c.rows), Val: bigmem.MakeCap[float64](0, len(c.col)+c.rows)}
 	for i := 0; i < c.rows; i++ {
 		hasDiag := false
 		for k := c.ptr[i]; k < c.ptr[i+1]; k++ {
@@ -628,7 +630,7 @@ func (l *amgLevel) smooth(x, b []float64, forward, zero bool) {
 	var snap []float64
 	if !zero {
 		if len(l.snap) != n {
-			l.snap = make([]float64, n)
+			l.snap = bigmem.Make[float64](n)
 			l.halo = l.findHalo()
 		}
 		snap = l.snap

@@ -4,6 +4,8 @@ import (
 	"errors"
 	"fmt"
 	"math"
+
+	"github.com/heatgraph/heatgraph/internal/bigmem"
 )
 
 // Defaults of the iterative solvers.
@@ -58,7 +60,7 @@ func (s *iterBase) factorize(a *Matrix, sign float64) error {
 		return err
 	}
 	if cap(s.a.Val) < len(a.Val) {
-		s.a.Val = make([]float64, len(a.Val))
+		s.a.Val = bigmem.Make[float64](len(a.Val))
 	}
 	s.a.Val = s.a.Val[:len(a.Val)]
 	copy(s.a.Val, a.Val)
@@ -78,7 +80,7 @@ func (s *iterBase) vectors(k int) [][]float64 {
 	if len(s.w) != k || len(s.w[0]) != n {
 		s.w = make([][]float64, k)
 		for i := range s.w {
-			s.w[i] = make([]float64, n)
+			s.w[i] = bigmem.Make[float64](n)
 		}
 	}
 	return s.w

@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"math"
 	"slices"
+
+	"github.com/heatgraph/heatgraph/internal/bigmem"
 )
 
 // ErrSingular is returned, wrapped with detail such as the pivot row, by
@@ -104,7 +106,7 @@ func checkLen(n int, x, b []float64) error {
 // equals its transpose to within rel times the larger of the two row scales
 // (an entry missing from the pattern counts as zero).
 func IsSymmetric(a *Matrix, rel float64) bool {
-	scale := make([]float64, a.N)
+	scale := bigmem.Make[float64](a.N)
 	inBlocks(a.N, func(_, lo, hi int) {
 		for i := lo; i < hi; i++ {
 			m := 0.0

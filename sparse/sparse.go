@@ -10,6 +10,8 @@ import (
 	"math"
 	"slices"
 	"sort"
+
+	"github.com/heatgraph/heatgraph/internal/bigmem"
 )
 
 // Builder collects the structural non-zeros of a square matrix.
@@ -128,10 +130,10 @@ func (b *Builder) build(slots bool) (*Matrix, []int32) {
 	}
 	var slot []int32
 	if slots {
-		slot = make([]int32, b.marks)
+		slot = bigmem.Make[int32](b.marks)
 	}
-	m := &Matrix{N: n, RowPtr: make([]int, n+1)}
-	cols := make([]int, 0, start[n])
+	m := &Matrix{N: n, RowPtr: bigmem.Make[int](n + 1)}
+	cols := bigmem.MakeCap[int](0, start[n])
 	for i := range n {
 		row := keys[start[i]:start[i+1]]
 		sortKeys(row)
@@ -149,7 +151,7 @@ func (b *Builder) build(slots bool) (*Matrix, []int32) {
 		m.RowPtr[i+1] = len(cols)
 	}
 	m.Col = cols[:len(cols):len(cols)]
-	m.Val = make([]float64, len(cols))
+	m.Val = bigmem.Make[float64](len(cols))
 	return m, slot
 }
 
@@ -171,8 +173,8 @@ func layout(start []int) (keys []uint64, next []int) {
 	if start[n]-n >= math.MaxUint32-1 {
 		panic(fmt.Sprintf("sparse: %d marks are too many for a builder", start[n]-n))
 	}
-	keys = make([]uint64, start[n])
-	next = make([]int, n)
+	keys = bigmem.Make[uint64](start[n])
+	next = bigmem.Make[int](n)
 	for i := range n {
 		keys[start[i]] = uint64(i) << 32
 		next[i] = start[i] + 1
@@ -262,7 +264,7 @@ func (m *Matrix) MulVec(dst, x []float64) {
 
 // Transpose returns mᵀ, its rows sorted as every matrix's are.
 func (m *Matrix) Transpose() *Matrix {
-	t := &Matrix{N: m.N, RowPtr: make([]int, m.N+1), Col: make([]int, len(m.Col)), Val: make([]float64, len(m.Val))}
+	t := &Matrix{N: m.N, RowPtr: bigmem.Make[int](m.N + 1), Col: bigmem.Make[int](len(m.Col)), Val: bigmem.Make[float64](len(m.Val))}
 	for _, c := range m.Col {
 		t.RowPtr[c+1]++
 	}

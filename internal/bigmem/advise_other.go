@@ -1,0 +1,5 @@
+//go:build !linux
+
+package bigmem
+
+func advise[T any](s []T) {}
