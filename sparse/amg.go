@@ -82,6 +82,7 @@ type AMG struct {
 	SmoothLevels int
 
 	levels []*amgLevel
+	narrow narrowing // the finest level's column indices
 	sign   float64
 	fresh  bool // the last Setup built the hierarchy
 	renew  bool // the next Setup must build it
@@ -90,7 +91,7 @@ type AMG struct {
 }
 
 type amgLevel struct {
-	a      *Matrix // the operator of this level, of A (not sign·A)
+	a      *op // the operator of this level, of A (not sign·A)
 	diag   []int
 	inv    []float64 // 1/a_ii
 	agg    []int     // aggregate of each node, -1 if none
@@ -98,6 +99,7 @@ type amgLevel struct {
 	p, r   csr // prolongation and its transpose
 	x, b   []float64
 	res    []float64
+	strong []bool    // strong entries of a, during Setup (see findStrong)
 	snap   []float64 // x before a parallel sweep, at the halo
 	halo   []int32   // the columns that rows of another block read
 	coarse []float64 // restricted residual, the next level's right side
@@ -140,6 +142,16 @@ func (m *AMG) Renew() { m.renew = true }
 // its finest level, whose values must not change until the next Setup
 // (the iterative solvers pass their own copy of the matrix).
 func (m *AMG) Setup(a *Matrix, sign float64) error {
+	top, err := m.narrow.op(a)
+	if err != nil {
+		return err
+	}
+	return m.setup(top, sign)
+}
+
+// setup is Setup for a finest level already in 4-byte indices (the
+// iterative solvers share theirs).
+func (m *AMG) setup(a *op, sign float64) error {
 	if m.Lag && !m.renew && len(m.levels) > 1 && m.sign == sign {
 		if top := m.levels[0].a; top.N == a.N && len(top.Col) == len(a.Col) && &top.Col[0] == &a.Col[0] {
 			m.levels[0].a = a
@@ -189,25 +201,27 @@ func (m *AMG) Setup(a *Matrix, sign float64) error {
 		if depth > 0 {
 			th = coarseTheta
 		}
+		l.findStrong(th)
 		if depth < len(old) && old[depth].agg != nil && old[depth].a.N == cur.N {
 			l.agg, l.nagg = old[depth].agg, old[depth].nagg
 		} else {
-			l.aggregate(th)
+			l.aggregate()
 		}
 		if l.nagg == 0 || l.nagg >= cur.N*9/10 {
-			l.agg = nil
+			l.agg, l.strong = nil, nil
 			break // no useful coarsening
 		}
-		l.prolongation(depth < m.smoothed(), th)
-		cur = galerkin(l.r, cur, l.p)
 		n := l.a.N
 		l.x, l.b, l.res = bigmem.Make[float64](n), bigmem.Make[float64](n), bigmem.Make[float64](n)
+		l.prolongation(depth < m.smoothed())
+		l.strong = nil
+		cur = galerkin(l.r, cur, l.p)
 		l.coarse = make([]float64, l.nagg)
 	}
 	last := m.levels[len(m.levels)-1]
 	last.agg = nil
 	m.coarse = NewLU()
-	if err := m.coarse.Factorize(last.a); err != nil {
+	if err := m.coarse.Factorize(last.a.matrix()); err != nil {
 		return fmt.Errorf("multigrid coarsest level of %d: %w", last.a.N, err)
 	}
 	m.cx = bigmem.Make[float64](last.a.N)
@@ -234,49 +248,60 @@ func (l *amgLevel) setDiag() error {
 	return nil
 }
 
-// strong reports whether entry k of row i joins i strongly to its column j:
-// max(|a_ij|, |a_ji|) ≥ θ·√|a_ii·a_jj|.
-func (l *amgLevel) strong(i, k int, theta float64) bool {
+// findStrong marks the entries of l.a that join their row strongly to
+// their column: max(|a_ij|, |a_ji|) ≥ θ·√|a_ii·a_jj|; the diagonal is not
+// marked. The rows are judged in parallel blocks; aggregate and
+// prolongation read the marks.
+func (l *amgLevel) findStrong(theta float64) {
 	a := l.a
-	j := a.Col[k]
-	v := math.Abs(a.Val[k])
-	if t := a.At(j, i); math.Abs(t) > v {
-		v = math.Abs(t)
-	}
-	return v >= theta*math.Sqrt(math.Abs(a.Val[l.diag[i]]*a.Val[l.diag[j]]))
+	l.strong = bigmem.Make[bool](len(a.Col))
+	inBlocks(a.N, func(_, lo, hi int) {
+		for i := lo; i < hi; i++ {
+			di := math.Abs(a.Val[l.diag[i]])
+			for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
+				j := int(a.Col[k])
+				if j == i {
+					continue
+				}
+				v := math.Abs(a.Val[k])
+				if t := math.Abs(a.At(j, i)); t > v {
+					v = t
+				}
+				l.strong[k] = v >= theta*math.Sqrt(di*math.Abs(a.Val[l.diag[j]]))
+			}
+		}
+	})
 }
 
 // aggregate groups strongly connected nodes (the three passes of Vaněk,
 // Mandel & Brezina 1996): whole neighbourhoods first, then the rest joined
 // to a neighbouring aggregate, then leftovers grouped among themselves.
 // Nodes with no strong neighbour stay out: the smoother handles them.
-func (l *amgLevel) aggregate(theta float64) {
+func (l *amgLevel) aggregate() {
 	a := l.a
 	n := a.N
-	// Strong neighbours, symmetrised, in compressed rows.
-	sptr := bigmem.Make[int](n + 1)
-	sidx := bigmem.MakeCap[int32](0, len(a.Col))
-	for i := 0; i < n; i++ {
+	strong, col := l.strong, a.Col
+	// lone reports whether i has no strong neighbour.
+	lone := func(i int) bool {
 		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
-			if j := a.Col[k]; j != i && l.strong(i, k, theta) {
-				sidx = append(sidx, int32(j))
+			if strong[k] {
+				return false
 			}
 		}
-		sptr[i+1] = len(sidx)
+		return true
 	}
-	strong := func(i int) []int32 { return sidx[sptr[i]:sptr[i+1]] }
 	agg := bigmem.Make[int](n)
 	for i := range agg {
 		agg[i] = -1
 	}
 	na := 0
 	for i := 0; i < n; i++ { // pass 1
-		if agg[i] >= 0 || len(strong(i)) == 0 {
+		if agg[i] >= 0 || lone(i) {
 			continue
 		}
 		free := true
-		for _, j := range strong(i) {
-			if agg[j] >= 0 {
+		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
+			if strong[k] && agg[col[k]] >= 0 {
 				free = false
 				break
 			}
@@ -285,31 +310,39 @@ func (l *amgLevel) aggregate(theta float64) {
 			continue
 		}
 		agg[i] = na
-		for _, j := range strong(i) {
-			agg[j] = na
+		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
+			if strong[k] {
+				agg[col[k]] = na
+			}
 		}
 		na++
 	}
-	pass1 := append(bigmem.MakeCap[int](0, len(agg)), agg...)
+	// Pass 2 joins a node to an aggregate of pass 1 only: a node it
+	// joins is marked −2 − g meanwhile, which later nodes pass over.
 	for i := 0; i < n; i++ { // pass 2
-		if agg[i] >= 0 {
+		if agg[i] != -1 {
 			continue
 		}
-		for _, j := range strong(i) {
-			if pass1[j] >= 0 {
-				agg[i] = pass1[j]
+		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
+			if g := agg[col[k]]; strong[k] && g >= 0 {
+				agg[i] = -2 - g
 				break
 			}
 		}
 	}
+	for i, g := range agg {
+		if g < -1 {
+			agg[i] = -2 - g
+		}
+	}
 	for i := 0; i < n; i++ { // pass 3
-		if agg[i] >= 0 || len(strong(i)) == 0 {
+		if agg[i] >= 0 || lone(i) {
 			continue
 		}
 		agg[i] = na
-		for _, j := range strong(i) {
-			if agg[j] < 0 {
-				agg[j] = na
+		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
+			if strong[k] && agg[col[k]] < 0 {
+				agg[col[k]] = na
 			}
 		}
 		na++
@@ -319,7 +352,7 @@ func (l *amgLevel) aggregate(theta float64) {
 
 // prolongation forms P = (I − ω·D_F⁻¹·A_F)·P̂ and R = Pᵀ, with A_F the
 // filtered matrix of Vaněk, Mandel & Brezina (1996): the weak entries of
-// each row (strength threshold theta, see aggregate) are dropped and added
+// each row (not marked by findStrong) are dropped and added
 // to its diagonal, D_F. Without the filter a node joined weakly to many
 // (a component's junction over the thousands of cells of its footprint)
 // would get a row of P over every aggregate it touches, and the Galerkin
@@ -328,7 +361,7 @@ func (l *amgLevel) aggregate(theta float64) {
 // second level against 9 without it. A node with no strong neighbour
 // outside an aggregate gets an empty row, as in P̂: the smoother handles
 // it.
-func (l *amgLevel) prolongation(smooth bool, theta float64) {
+func (l *amgLevel) prolongation(smooth bool) {
 	a := l.a
 	n := a.N
 	omega := 0.0
@@ -371,8 +404,8 @@ func (l *amgLevel) prolongation(smooth bool, theta float64) {
 			keep = slices.Grow(keep[:0], k1-k0)[:k1-k0]
 			df := 0.0
 			for k := k0; k < k1; k++ {
-				j := a.Col[k]
-				keep[k-k0] = j == i || l.strong(i, k, theta)
+				j := int(a.Col[k])
+				keep[k-k0] = j == i || l.strong[k]
 				if !keep[k-k0] || j == i {
 					df += a.Val[k]
 				}
@@ -428,7 +461,7 @@ func (l *amgLevel) prolongation(smooth bool, theta float64) {
 }
 
 // spectralRadius estimates ρ(D⁻¹A) by a few power iterations, bounded by
-// the Gershgorin bound.
+// the Gershgorin bound; it works in l.x and l.res.
 func (l *amgLevel) spectralRadius() float64 {
 	a := l.a
 	n := a.N
@@ -440,8 +473,10 @@ func (l *amgLevel) spectralRadius() float64 {
 		}
 		gersh = math.Max(gersh, s/math.Abs(a.Val[l.diag[i]]))
 	}
-	x := bigmem.Make[float64](n)
-	y := bigmem.Make[float64](n)
+	if len(l.x) != n || len(l.res) != n {
+		l.x, l.res = bigmem.Make[float64](n), bigmem.Make[float64](n)
+	}
+	x, y := l.x, l.res
 	for i := range x {
 		x[i] = 1 + float64(i%7)/7 - float64(i%3)/5
 	}
@@ -484,91 +519,78 @@ func (c csr) transpose() csr {
 	return t
 }
 
-// mul returns x·y (Gustavson's row-by-row product) with sorted rows: a
-// counting pass sizes the result, a second pass fills it; both work on
-// blocks of rows in parallel.
-func mul[X int | int32](rows int, xptr []int, xcol []X, xval []float64, y csr) csr {
-	z := csr{rows: rows, cols: y.cols, ptr: bigmem.Make[int](rows + 1)}
-	inBlocks(rows, func(_, lo, hi int) {
-		where := make([]int32, y.cols)
+// galerkin returns R·A·P as a square operator with its full diagonal
+// stored (zero where the product has none) and sorted rows. Each coarse
+// row is summed at once over the fine rows of R's row, the rows of A
+// they reach and the rows of P those reach (Gustavson's row-by-row
+// product taken through both factors), so A·P is never stored: at a
+// million rows it was the largest array of the set-up, 90 MB, for about
+// the same number of multiply-adds. A counting pass sizes the result, a
+// second fills it; both run on blocks of coarse rows in parallel.
+func galerkin(r csr, a *op, p csr) *op {
+	nc := r.rows
+	m := &op{N: nc, RowPtr: bigmem.Make[int](nc + 1)}
+	inBlocks(nc, func(_, lo, hi int) {
+		where := make([]int32, p.cols)
 		for i := range where {
 			where[i] = -1
 		}
-		for i := lo; i < hi; i++ {
-			c := 0
-			for k := xptr[i]; k < xptr[i+1]; k++ {
-				for _, col := range y.col[y.ptr[xcol[k]]:y.ptr[xcol[k]+1]] {
-					if where[col] != int32(i) {
-						where[col] = int32(i)
-						c++
+		for ci := lo; ci < hi; ci++ {
+			mark := int32(ci)
+			where[ci] = mark
+			c := 1
+			for q := r.ptr[ci]; q < r.ptr[ci+1]; q++ {
+				i := r.col[q]
+				for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
+					j := a.Col[k]
+					for _, cj := range p.col[p.ptr[j]:p.ptr[j+1]] {
+						if where[cj] != mark {
+							where[cj] = mark
+							c++
+						}
 					}
 				}
 			}
-			z.ptr[i+1] = c
+			m.RowPtr[ci+1] = c
 		}
 	})
-	for i := 0; i < rows; i++ {
-		z.ptr[i+1] += z.ptr[i]
+	for i := 0; i < nc; i++ {
+		m.RowPtr[i+1] += m.RowPtr[i]
 	}
-	z.col = bigmem.Make[int32](z.ptr[rows])
-	z.val = bigmem.Make[float64](z.ptr[rows])
-	inBlocks(rows, func(_, lo, hi int) {
-		where := make([]int32, y.cols)
+	m.Col = bigmem.Make[int32](m.RowPtr[nc])
+	m.Val = bigmem.Make[float64](m.RowPtr[nc])
+	inBlocks(nc, func(_, lo, hi int) {
+		where := make([]int32, p.cols)
 		for i := range where {
 			where[i] = -1
 		}
-		acc := make([]float64, y.cols)
-		for i := lo; i < hi; i++ {
-			row := z.col[z.ptr[i]:z.ptr[i]:z.ptr[i+1]]
-			for k := xptr[i]; k < xptr[i+1]; k++ {
-				j, v := xcol[k], xval[k]
-				for q := y.ptr[j]; q < y.ptr[j+1]; q++ {
-					c := y.col[q]
-					if where[c] != int32(i) {
-						where[c] = int32(i)
-						acc[c] = 0
-						row = append(row, c)
+		acc := make([]float64, p.cols)
+		for ci := lo; ci < hi; ci++ {
+			mark := int32(ci)
+			row := m.Col[m.RowPtr[ci]:m.RowPtr[ci]:m.RowPtr[ci+1]]
+			where[ci], acc[ci] = mark, 0
+			row = append(row, mark)
+			for q := r.ptr[ci]; q < r.ptr[ci+1]; q++ {
+				i, rv := r.col[q], r.val[q]
+				for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
+					j, av := a.Col[k], rv*a.Val[k]
+					for s := p.ptr[j]; s < p.ptr[j+1]; s++ {
+						cj := p.col[s]
+						if where[cj] != mark {
+							where[cj] = mark
+							acc[cj] = 0
+							row = append(row, cj)
+						}
+						acc[cj] += av * p.val[s]
 					}
-					acc[c] += v * y.val[q]
 				}
 			}
 			slices.Sort(row)
 			for k, c := range row {
-				z.val[z.ptr[i]+k] = acc[c]
+				m.Val[m.RowPtr[ci]+k] = acc[c]
 			}
 		}
 	})
-	return z
-}
-
-// galerkin returns R·A·P as a square Matrix with its full diagonal.
-func galerkin(r csr, a *Matrix, p csr) *Matrix {
-	ap := mul(a.N, a.RowPtr, a.Col, a.Val, p)
-	c := mul(r.rows, r.ptr, r.col, r.val, ap)
-	m := &Matrix{N: c.rows, RowPtr: bigmem.Make[int](c.rows + 1),
-		Col: bigmem.MakeCap[int](0, len(c.col)+c.rows), Val: bigmem.MakeCap[float64](0, len(c.col)+c.rows)}
-	for i := 0; i < c.rows; i++ {
-		hasDiag := false
-		for k := c.ptr[i]; k < c.ptr[i+1]; k++ {
-			if int(c.col[k]) == i {
-				hasDiag = true
-			}
-		}
-		for k := c.ptr[i]; k < c.ptr[i+1]; k++ {
-			if !hasDiag && int(c.col[k]) > i {
-				m.Col = append(m.Col, i)
-				m.Val = append(m.Val, 0)
-				hasDiag = true
-			}
-			m.Col = append(m.Col, int(c.col[k]))
-			m.Val = append(m.Val, c.val[k])
-		}
-		if !hasDiag {
-			m.Col = append(m.Col, i)
-			m.Val = append(m.Val, 0)
-		}
-		m.RowPtr[i+1] = len(m.Col)
-	}
 	return m
 }
 
@@ -649,11 +671,12 @@ func (l *amgLevel) findHalo() []int32 {
 	var halo []int32
 	for b := 0; b < blocks; b++ {
 		lo, hi := split(a.N, b)
+		lo32, hi32 := int32(lo), int32(hi)
 		for i := lo; i < hi; i++ {
 			for _, c := range a.Col[a.RowPtr[i]:a.RowPtr[i+1]] {
-				if (c < lo || c >= hi) && !seen[c] {
+				if (c < lo32 || c >= hi32) && !seen[c] {
 					seen[c] = true
-					halo = append(halo, int32(c))
+					halo = append(halo, c)
 				}
 			}
 		}
@@ -670,16 +693,17 @@ func (l *amgLevel) gaussSeidel(x, b []float64, forward bool, lo, hi int, snap []
 	if !forward {
 		i, step, end = hi-1, -1, lo-1
 	}
+	lo32, hi32 := int32(lo), int32(hi)
 	for ; i != end; i += step {
 		s := b[i]
 		k0, k1 := a.RowPtr[i], a.RowPtr[i+1]
 		cols := a.Col[k0:k1]
 		vals := a.Val[k0:k1]
 		vals = vals[:len(cols)]
-		if len(cols) > 0 && (cols[0] < lo || cols[len(cols)-1] >= hi) {
+		if len(cols) > 0 && (cols[0] < lo32 || cols[len(cols)-1] >= hi32) {
 			// A row on the edge of its block.
 			for k, c := range cols {
-				if c >= lo && c < hi {
+				if c >= lo32 && c < hi32 {
 					s -= vals[k] * x[c]
 				} else if snap != nil {
 					s -= vals[k] * snap[c]

@@ -186,13 +186,19 @@ func TestGalerkinAgainstTripleSum(t *testing.T) {
 		"grid2D 400×400": grid2D(400, 400, rng),
 		"network 700":    network(700, rng, false),
 	} {
-		l := &amgLevel{a: a}
+		var nw narrowing
+		top, err := nw.op(a)
+		if err != nil {
+			t.Fatal(err)
+		}
+		l := &amgLevel{a: top}
 		if err := l.setDiag(); err != nil {
 			t.Fatal(err)
 		}
-		l.aggregate(DefaultAMGTheta)
-		l.prolongation(true, DefaultAMGTheta)
-		got := galerkin(l.r, a, l.p)
+		l.findStrong(DefaultAMGTheta)
+		l.aggregate()
+		l.prolongation(true)
+		got := galerkin(l.r, top, l.p)
 		want := make([]map[int]float64, l.nagg)
 		for ci := range want {
 			want[ci] = map[int]float64{ci: 0}
@@ -222,7 +228,7 @@ func TestGalerkinAgainstTripleSum(t *testing.T) {
 				if k > 0 && c <= row[k-1] {
 					t.Fatalf("%s: row %d not sorted: %v", name, ci, row)
 				}
-				w, ok := want[ci][c]
+				w, ok := want[ci][int(c)]
 				if !ok {
 					t.Fatalf("%s: entry (%d, %d) not in the product", name, ci, c)
 				}

@@ -28,6 +28,8 @@ type iterBase struct {
 	WarmStart bool
 
 	a      Matrix // pattern shared with the caller's matrix, values copied
+	op     *op    // a with 4-byte column indices, for the products
+	narrow narrowing
 	ok     bool
 	iters  int
 	relres float64
@@ -65,14 +67,28 @@ func (s *iterBase) factorize(a *Matrix, sign float64) error {
 	s.a.Val = s.a.Val[:len(a.Val)]
 	copy(s.a.Val, a.Val)
 	s.a.RowPtr, s.a.Col = a.RowPtr, a.Col
+	o, err := s.narrow.op(&s.a)
+	if err != nil {
+		return err
+	}
+	s.op = o
 	if s.Precond == nil {
 		s.Precond = &ILU0{}
 	}
-	if err := s.Precond.Setup(&s.a, sign); err != nil {
+	if err := s.setupPrecond(sign); err != nil {
 		return err
 	}
 	s.ok = true
 	return nil
+}
+
+// setupPrecond sets the preconditioner up for sign·A; multigrid takes
+// the matrix with the solver's own 4-byte column indices.
+func (s *iterBase) setupPrecond(sign float64) error {
+	if m, ok := s.Precond.(*AMG); ok {
+		return m.setup(s.op, sign)
+	}
+	return s.Precond.Setup(&s.a, sign)
 }
 
 func (s *iterBase) vectors(k int) [][]float64 {
@@ -104,7 +120,7 @@ func (s *iterBase) start(x, b, r []float64) (float64, float64) {
 		clear(x)
 		copy(r, b)
 	} else {
-		s.a.MulVec(r, x)
+		s.op.MulVec(r, x)
 		for i := range r {
 			r[i] = b[i] - r[i]
 		}
@@ -162,7 +178,7 @@ func (s *CG) Solve(x, b []float64) error {
 	iters := s.iters
 	if lagging && errors.Is(err, ErrNotConverged) && !l.Fresh() && limit < maxIter {
 		l.Renew()
-		if err = s.Precond.Setup(&s.a, -1); err != nil {
+		if err = s.setupPrecond(-1); err != nil {
 			return err
 		}
 		warm := s.WarmStart
@@ -204,7 +220,7 @@ func (s *iterBase) judge(l lagger, start float64) {
 // the relative residual it started from.
 func (s *CG) cg(x, b []float64, tol float64, maxIter int) (float64, error) {
 	n := s.a.N
-	a := &s.a
+	a := s.op
 	w := s.vectors(4)
 	r, z, p, q := w[0], w[1], w[2], w[3]
 	bn, rn := s.start(x, b, r)
@@ -346,7 +362,7 @@ func (s *BiCGStab) Solve(x, b []float64) error {
 			}
 		}
 		s.Precond.Apply(ph, p)
-		s.a.MulVec(v, ph)
+		s.op.MulVec(v, ph)
 		rv := dot(rhat, v)
 		if rv == 0 {
 			restart = true
@@ -373,7 +389,7 @@ func (s *BiCGStab) Solve(x, b []float64) error {
 			continue
 		}
 		s.Precond.Apply(sh, r)
-		s.a.MulVec(t, sh)
+		s.op.MulVec(t, sh)
 		tt := dot(t, t)
 		if tt == 0 {
 			omega = 0
@@ -397,7 +413,7 @@ func (s *BiCGStab) Solve(x, b []float64) error {
 
 // converged recomputes r = b − A·x and reports whether it meets tol.
 func (s *iterBase) converged(x, b, r []float64, bn, tol float64) bool {
-	s.a.MulVec(r, x)
+	s.op.MulVec(r, x)
 	for i := range r {
 		r[i] = b[i] - r[i]
 	}

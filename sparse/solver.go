@@ -5,8 +5,6 @@ import (
 	"fmt"
 	"math"
 	"slices"
-
-	"github.com/heatgraph/heatgraph/internal/bigmem"
 )
 
 // ErrSingular is returned, wrapped with detail such as the pivot row, by
@@ -106,34 +104,37 @@ func checkLen(n int, x, b []float64) error {
 // equals its transpose to within rel times the larger of the two row scales
 // (an entry missing from the pattern counts as zero).
 func IsSymmetric(a *Matrix, rel float64) bool {
-	scale := bigmem.Make[float64](a.N)
-	inBlocks(a.N, func(_, lo, hi int) {
-		for i := lo; i < hi; i++ {
-			m := 0.0
-			for _, v := range a.Val[a.RowPtr[i]:a.RowPtr[i+1]] {
-				if v := math.Abs(v); v > m {
-					m = v
-				}
+	// rowScale is the largest magnitude in row i: computed where needed
+	// rather than stored, so that the test, run at every factorization,
+	// allocates nothing (rows are short).
+	rowScale := func(i int) float64 {
+		m := 0.0
+		for _, v := range a.Val[a.RowPtr[i]:a.RowPtr[i+1]] {
+			if v := math.Abs(v); v > m {
+				m = v
 			}
-			scale[i] = m
 		}
-	})
+		return m
+	}
 	var asym [blocks]bool
 	inBlocks(a.N, func(b, lo, hi int) {
 		for i := lo; i < hi; i++ {
+			si := rowScale(i)
 			for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
 				j := a.Col[k]
 				if j > i {
 					t := a.At(j, i)
-					if math.Abs(a.Val[k]-t) > rel*math.Max(scale[i], scale[j]) {
+					if d := math.Abs(a.Val[k] - t); d > rel*si && d > rel*rowScale(j) {
 						asym[b] = true
 						return
 					}
-				} else if j < i && a.Index(j, i) < 0 && math.Abs(a.Val[k]) > rel*math.Max(scale[i], scale[j]) {
+				} else if j < i && a.Index(j, i) < 0 {
 					// An entry below the diagonal whose transpose is
 					// missing.
-					asym[b] = true
-					return
+					if d := math.Abs(a.Val[k]); d > rel*si && d > rel*rowScale(j) {
+						asym[b] = true
+						return
+					}
 				}
 			}
 		}
