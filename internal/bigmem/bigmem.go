@@ -12,9 +12,14 @@
 // another system, Make is the built-in make.
 package bigmem
 
-// Threshold is the size in bytes from which Make advises huge pages: two
-// huge pages. Smaller slices are left to the runtime.
-const Threshold = 4 << 20
+// Threshold is the size in bytes from which Make advises huge pages. The
+// advice covers the heap arena around the slice (see advise), so one
+// quarter-mebibyte array of a mesh of 1e5 cells is enough to bring its
+// neighbours under it: on the 1e5-cell board of heatgraph bench, faults
+// fell from 15,000 to 2,000 and the solve from 0.55 s to 0.42 s against a
+// threshold of 4 MiB. Smaller slices, those of models of a few thousand
+// nodes, are left alone, so small runs keep their small footprint.
+const Threshold = 256 << 10
 
 // Make returns make([]T, n), with huge pages advised for a large slice.
 func Make[T any](n int) []T {
