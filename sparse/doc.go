@@ -58,7 +58,11 @@
 // multigrid cycle work on two fixed blocks of rows in parallel: products,
 // dot products (partial sums added in block order) and a hybrid
 // Gauss–Seidel smoother. The blocks depend on the size alone, so a solve
-// gives the same bits on every run and machine.
+// gives the same bits on every run and machine. These sweeps read the
+// matrix with 4-byte column indices (op): the solver narrows a pattern's
+// indices once and shares them with the multigrid hierarchy, whose coarse
+// levels are built in that form (the Galerkin product row by row of R,
+// without storing A·P).
 //
 // Pivots are judged against DefaultPivotTol times the largest magnitude of
 // their row. LU factorisations are not rank-revealing: a singular matrix
