@@ -104,10 +104,10 @@
 // measured, on the same kind of machine:
 //
 //	                 cells  Newton  CG iterations  processor  peak
-//	board (2-D)      1e5    4       39             0.74 s     73 MB
-//	board (2-D)      1e6    4       61             7.5–8.8 s  680 MB
-//	block (3-D)      1e5    4       45             1.0–1.1 s  92 MB
-//	block (3-D)      1e6    4       53             11–14 s    950 MB
+//	board (2-D)      1e5    5       52             0.65 s     74 MB
+//	board (2-D)      1e6    4       65             6.6 s      565 MB
+//	block (3-D)      1e5    4       47             0.79 s     85 MB
+//	block (3-D)      1e6    4       57             8.6 s      768 MB
 //
 // Within Newton the iterative path matched the direct one on the 2-D board
 // of 1e4 cells and won from about 4e4 (0.2 s against 0.3 s at 200²).
