@@ -56,9 +56,9 @@ const symmetryTol = 1e-12
 // definite; both share the one symbolic analysis. Above the limit it
 // iterates: CG for symmetric values, BiCGStab otherwise (or when CG meets a
 // direction of non-positive curvature), both preconditioned by AMG whose
-// aggregates are kept for later values of the same pattern (for CG the
-// whole hierarchy lags behind the values until CG finds it too slow, see
-// AMG.Lag), except that
+// aggregates are kept for later values of the same pattern (the whole
+// hierarchy lags behind the values until the solver finds it too slow, see
+// AMG.Lag and CG.Solve), except that
 // BiCGStab takes ILU(0) where air streams dominate (Asymmetry above
 // AdvectionLimit, default DefaultAdvectionLimit), at
 // the tolerance set by SetTolerance (default DefaultTol). Failure to
@@ -162,20 +162,23 @@ func Asymmetry(a *Matrix) float64 {
 	if a.N == 0 {
 		return 0
 	}
-	sum := 0.0
-	for i := 0; i < a.N; i++ {
-		d := math.Abs(a.At(i, i))
-		if d == 0 {
-			continue
-		}
-		r := 0.0
-		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
-			if j := a.Col[k]; j != i {
-				r += math.Abs(a.Val[k] - a.At(j, i))
+	sum := sumBlocks(a.N, func(lo, hi int) float64 {
+		sum := 0.0
+		for i := lo; i < hi; i++ {
+			d := math.Abs(a.At(i, i))
+			if d == 0 {
+				continue
 			}
+			r := 0.0
+			for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
+				if j := a.Col[k]; j != i {
+					r += math.Abs(a.Val[k] - a.At(j, i))
+				}
+			}
+			sum += math.Min(r/(2*d), 1)
 		}
-		sum += math.Min(r/(2*d), 1)
-	}
+		return sum
+	})
 	return sum / float64(a.N)
 }
 
@@ -197,7 +200,7 @@ func (s *AutoSolver) choosePrecond(a *Matrix) {
 			s.bicg.Precond = &ILU0{}
 		}
 	} else if _, ok := s.bicg.Precond.(*AMG); !ok {
-		s.bicg.Precond = &AMG{ReuseAggregates: true}
+		s.bicg.Precond = &AMG{ReuseAggregates: true, Lag: true}
 	}
 }
 
@@ -251,7 +254,7 @@ func (s *AutoSolver) Factorize(a *Matrix) error {
 		s.chosen = s.cg
 	} else {
 		if s.bicg == nil {
-			s.bicg = &BiCGStab{iterBase{Precond: &AMG{ReuseAggregates: true}}}
+			s.bicg = &BiCGStab{iterBase{Precond: &AMG{ReuseAggregates: true, Lag: true}}}
 		}
 		s.choosePrecond(a)
 		s.chosen = s.bicg
@@ -275,7 +278,7 @@ func (s *AutoSolver) Solve(x, b []float64) error {
 	err := s.chosen.Solve(x, b)
 	if cg, ok := s.chosen.(*CG); ok && errors.Is(err, ErrNotDefinite) {
 		if s.bicg == nil {
-			s.bicg = &BiCGStab{iterBase{Precond: &AMG{ReuseAggregates: true}}}
+			s.bicg = &BiCGStab{iterBase{Precond: &AMG{ReuseAggregates: true, Lag: true}}}
 		}
 		s.chosen = s.bicg
 		s.configure()

@@ -166,6 +166,14 @@ func (s *CG) Solve(x, b []float64) error {
 	if err := checkLen(s.a.N, x, b); err != nil {
 		return err
 	}
+	return s.lagged(-1, func(tol float64, maxIter int) (float64, error) { return s.cg(x, b, tol, maxIter) })
+}
+
+// lagged runs the iteration run (returning the relative residual it
+// started from) to the solver's tolerance; with a lagging multigrid
+// preconditioner (AMG.Lag) for sign·A it judges the hierarchy as CG.Solve
+// describes.
+func (s *iterBase) lagged(sign float64, run func(tol float64, maxIter int) (float64, error)) error {
 	tol, maxIter := s.limits()
 	l, lagging := s.Precond.(lagger)
 	limit := maxIter
@@ -174,16 +182,16 @@ func (s *CG) Solve(x, b []float64) error {
 		// three times over.
 		limit = min(maxIter, 10+int(3*math.Log(tol)/s.freshRate))
 	}
-	start, err := s.cg(x, b, tol, limit)
+	start, err := run(tol, limit)
 	iters := s.iters
 	if lagging && errors.Is(err, ErrNotConverged) && !l.Fresh() && limit < maxIter {
 		l.Renew()
-		if err = s.setupPrecond(-1); err != nil {
+		if err = s.setupPrecond(sign); err != nil {
 			return err
 		}
 		warm := s.WarmStart
 		s.WarmStart = true
-		start, err = s.cg(x, b, tol, maxIter-iters)
+		start, err = run(tol, maxIter-iters)
 		s.WarmStart = warm
 		s.iters += iters
 	}
@@ -314,7 +322,8 @@ func (s *BiCGStab) Factorize(a *Matrix) error { return s.factorize(a, 1) }
 
 // Solve iterates from zero (or from x with WarmStart) until
 // ‖b − A·x‖₂ ≤ Tol·‖b‖₂; failing that within MaxIter iterations, it
-// returns an error wrapping ErrNotConverged, with x the last iterate.
+// returns an error wrapping ErrNotConverged, with x the last iterate. A
+// lagging multigrid preconditioner is judged as in CG.Solve.
 func (s *BiCGStab) Solve(x, b []float64) error {
 	if !s.ok {
 		return fmt.Errorf("%w: no successful factorisation", ErrPattern)
@@ -322,18 +331,26 @@ func (s *BiCGStab) Solve(x, b []float64) error {
 	if err := checkLen(s.a.N, x, b); err != nil {
 		return err
 	}
-	tol, maxIter := s.limits()
+	return s.lagged(1, func(tol float64, maxIter int) (float64, error) { return s.bicg(x, b, tol, maxIter) })
+}
+
+// bicg is the BiCGStab iteration, at most maxIter steps, on blocks of rows
+// in parallel on long vectors. It returns the relative residual it
+// started from.
+func (s *BiCGStab) bicg(x, b []float64, tol float64, maxIter int) (float64, error) {
+	n := s.a.N
 	w := s.vectors(7)
 	r, rhat, p, v, ph, sh, t := w[0], w[1], w[2], w[3], w[4], w[5], w[6]
 	bn, rn := s.start(x, b, r)
 	s.iters, s.relres = 0, 0
 	if bn == 0 {
 		clear(x)
-		return nil
+		return 0, nil
 	}
 	s.relres = rn / bn
+	start := s.relres
 	if s.relres <= tol {
-		return nil
+		return start, nil
 	}
 	restart := true
 	var rho, alpha, omega float64
@@ -342,73 +359,87 @@ func (s *BiCGStab) Solve(x, b []float64) error {
 		if restart {
 			copy(rhat, r)
 			copy(p, r)
-			rho = dot(rhat, r)
+			rho = pdot(rhat, r)
 			restart = false
 		} else {
-			rhoNew := dot(rhat, r)
+			rhoNew := pdot(rhat, r)
 			if rhoNew == 0 || omega == 0 {
 				restart = true
 				restarts++
 				if restarts > 20 {
-					return s.fail("BiCGStab", it, "broke down")
+					return start, s.fail("BiCGStab", it, "broke down")
 				}
 				it--
 				continue
 			}
 			beta := rhoNew / rho * alpha / omega
 			rho = rhoNew
-			for i := range p {
-				p[i] = r[i] + beta*(p[i]-omega*v[i])
-			}
+			inBlocks(n, func(_, lo, hi int) {
+				for i := lo; i < hi; i++ {
+					p[i] = r[i] + beta*(p[i]-omega*v[i])
+				}
+			})
 		}
 		s.Precond.Apply(ph, p)
 		s.op.MulVec(v, ph)
-		rv := dot(rhat, v)
+		rv := pdot(rhat, v)
 		if rv == 0 {
 			restart = true
 			restarts++
 			if restarts > 20 {
-				return s.fail("BiCGStab", it, "broke down")
+				return start, s.fail("BiCGStab", it, "broke down")
 			}
 			continue
 		}
 		alpha = rho / rv
 		// s = r − α·v, kept in r.
-		for i := range r {
-			r[i] -= alpha * v[i]
-		}
-		s.iters = it
-		if sn := norm2(r); sn/bn <= tol {
-			for i := range x {
-				x[i] += alpha * ph[i]
+		sn := math.Sqrt(sumBlocks(n, func(lo, hi int) float64 {
+			t := 0.0
+			for i := lo; i < hi; i++ {
+				r[i] -= alpha * v[i]
+				t += r[i] * r[i]
 			}
+			return t
+		}))
+		s.iters = it
+		if sn/bn <= tol {
+			inBlocks(n, func(_, lo, hi int) {
+				for i := lo; i < hi; i++ {
+					x[i] += alpha * ph[i]
+				}
+			})
 			if s.converged(x, b, r, bn, tol) {
-				return nil
+				return start, nil
 			}
 			restart = true
 			continue
 		}
 		s.Precond.Apply(sh, r)
 		s.op.MulVec(t, sh)
-		tt := dot(t, t)
+		tt := pdot(t, t)
 		if tt == 0 {
 			omega = 0
 		} else {
-			omega = dot(t, r) / tt
+			omega = pdot(t, r) / tt
 		}
-		for i := range x {
-			x[i] += alpha*ph[i] + omega*sh[i]
-			r[i] -= omega * t[i]
-		}
-		s.relres = norm2(r) / bn
+		rr := sumBlocks(n, func(lo, hi int) float64 {
+			q := 0.0
+			for i := lo; i < hi; i++ {
+				x[i] += alpha*ph[i] + omega*sh[i]
+				r[i] -= omega * t[i]
+				q += r[i] * r[i]
+			}
+			return q
+		})
+		s.relres = math.Sqrt(rr) / bn
 		if s.relres <= tol {
 			if s.converged(x, b, r, bn, tol) {
-				return nil
+				return start, nil
 			}
 			restart = true
 		}
 	}
-	return s.fail("BiCGStab", s.iters, "stopped at the iteration limit")
+	return start, s.fail("BiCGStab", s.iters, "stopped at the iteration limit")
 }
 
 // converged recomputes r = b − A·x and reports whether it meets tol.

@@ -21,16 +21,13 @@ type op struct {
 	Val    []float64
 }
 
-// narrowCols returns a's column indices as int32, in cols when it is long
-// enough.
-func narrowCols(a *Matrix, cols []int32) ([]int32, error) {
+// narrowCols returns a's column indices as int32, in a new slice: the
+// multigrid hierarchy knows its pattern by the address of its indices.
+func narrowCols(a *Matrix) ([]int32, error) {
 	if a.N > math.MaxInt32 {
 		return nil, fmt.Errorf("%w: order %d is beyond the iterative solvers' 32-bit column indices", ErrPattern, a.N)
 	}
-	if cap(cols) < len(a.Col) {
-		cols = bigmem.Make[int32](len(a.Col))
-	}
-	cols = cols[:len(a.Col)]
+	cols := bigmem.Make[int32](len(a.Col))
 	inBlocks(a.N, func(_, lo, hi int) {
 		for k := a.RowPtr[lo]; k < a.RowPtr[hi]; k++ {
 			cols[k] = int32(a.Col[k])
@@ -50,7 +47,7 @@ type narrowing struct {
 // op returns a with 4-byte column indices; its values are a's, not a copy.
 func (c *narrowing) op(a *Matrix) (*op, error) {
 	if len(a.Col) == 0 || &a.Col[0] != c.of || len(a.Col) != c.n {
-		cols, err := narrowCols(a, c.cols)
+		cols, err := narrowCols(a)
 		if err != nil {
 			return nil, err
 		}

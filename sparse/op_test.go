@@ -58,5 +58,8 @@ func TestNarrowingKeepsTheMatrix(t *testing.T) {
 		if o3.Index(0, a.Col[0]) != 0 {
 			t.Errorf("%s: a new pattern was not read", name)
 		}
+		if &o3.Col[0] == &o.Col[0] {
+			t.Errorf("%s: a new pattern was written over the old one's indices, which the multigrid hierarchy knows its pattern by", name)
+		}
 	}
 }
