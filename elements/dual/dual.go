@@ -70,10 +70,25 @@ func Pow(a Num, p float64) Num {
 		return a
 	case 2:
 		return a.Mul(a)
+	case 0.5:
+		return Sqrt(a)
 	}
-	v := math.Pow(a.V, p)
+	var v float64
+	switch p {
+	case 1.5: // Sutherland's law: T^1.5
+		v = a.V * math.Sqrt(a.V)
+	case 0.25: // laminar natural convection: Ra^¼
+		v = math.Sqrt(math.Sqrt(a.V))
+	default:
+		v = math.Pow(a.V, p)
+	}
 	if a.D == 0 {
 		return Num{V: v}
+	}
+	if a.V != 0 {
+		// d(a^p) = p·a^p/a·da: one power, not two (these sit in the
+		// correlations evaluated at every cell of a meshed face).
+		return Num{v, p * v / a.V * a.D}
 	}
 	return Num{v, p * math.Pow(a.V, p-1) * a.D}
 }

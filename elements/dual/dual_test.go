@@ -24,6 +24,10 @@ func TestDerivativesMatchFiniteDifferences(t *testing.T) {
 		{"pow -2", func(a Num) Num { return Pow(a, -2) }, 3.0},
 		{"pow 2", func(a Num) Num { return Pow(a, 2) }, 3.0},
 		{"pow 1", func(a Num) Num { return Pow(a.Mul(a), 1) }, 3.0},
+		{"pow 0.5", func(a Num) Num { return Pow(a, 0.5) }, 7.0},
+		{"pow 1.5", func(a Num) Num { return Pow(a, 1.5) }, 300.0},
+		{"pow 0.25", func(a Num) Num { return Pow(a, 0.25) }, 2e5},
+		{"pow 1/6", func(a Num) Num { return Pow(a, 1.0/6) }, 2e5},
 		{"pown", func(a Num) Num { return PowN(a, a.Scale(0.5)) }, 1.3},
 		{"exp", Exp, -0.7},
 		{"log", Log, 5.0},
@@ -45,6 +49,20 @@ func TestDerivativesMatchFiniteDifferences(t *testing.T) {
 		want := (c.f(C(c.x+h*math.Max(1, math.Abs(c.x)))).V - c.f(C(c.x-h*math.Max(1, math.Abs(c.x)))).V) / (2 * h * math.Max(1, math.Abs(c.x)))
 		if math.Abs(got-want) > 1e-7*math.Max(1, math.Abs(want)) {
 			t.Errorf("%s at %g: derivative %.12g, finite difference %.12g", c.name, c.x, got, want)
+		}
+	}
+}
+
+// The powers taken by roots agree with math.Pow to a few units in the last
+// place (math.Pow is not correctly rounded either: 2.5e7^1.5 is exactly
+// 1.25e11, which the root gives and math.Pow misses by one unit).
+func TestPowRootsAreMathPow(t *testing.T) {
+	for _, p := range []float64{0.5, 1.5, 0.25} {
+		for _, x := range []float64{1e-3, 0.7, 293.15, 2.5e7} {
+			got, want := Pow(C(x), p).V, math.Pow(x, p)
+			if math.Abs(got-want) > 2e-15*want {
+				t.Errorf("%g^%g = %.17g, math.Pow %.17g", x, p, got, want)
+			}
 		}
 	}
 }
