@@ -130,7 +130,14 @@ type rangeCheck struct {
 // eval computes h·A at the current temperatures with the dual seed on
 // T_surface (seed 0), T_air (seed 1), or none (seed −1).
 func (n *Natural) eval(s *State, seed int) naturalState {
-	ts, ta := dual.C(s.X[n.Surface]), dual.C(s.X[n.Air])
+	return n.evalAt(s, s.X[n.Surface], s.X[n.Air], seed)
+}
+
+// evalAt is eval at the surface temperature tsv and air temperature tav
+// (K) instead of the state's: a meshed plate's natural-convection join
+// evaluates the correlation at every cell of its face.
+func (n *Natural) evalAt(s *State, tsv, tav float64, seed int) naturalState {
+	ts, ta := dual.C(tsv), dual.C(tav)
 	switch seed {
 	case 0:
 		ts.D = 1
@@ -153,8 +160,7 @@ func (n *Natural) eval(s *State, seed int) naturalState {
 		ns.ranges = []rangeCheck{{convection.ChurchillChuRa, ns.ra.V}}
 	case FacingUp, FacingDown:
 		ns.ra = gravityRa(s, p, dT, n.Length)
-		risesAway := (n.Orientation == FacingUp) == (dT.V >= 0)
-		if risesAway {
+		if risesAway(n.Orientation, dT.V) {
 			ns.nu = convection.HorizontalUp(ns.ra)
 			ns.correlation = "Lloyd-Moran (1974), buoyant flow leaves the face"
 			ns.ranges = []rangeCheck{{convection.HorizontalUpRa, ns.ra.V}, {convection.HorizontalPr, p.Pr.V}}
@@ -181,6 +187,31 @@ func (n *Natural) eval(s *State, seed int) naturalState {
 		ns.ranges = []rangeCheck{{convection.ChannelRaL, raL}}
 	}
 	return ns
+}
+
+// risesAway reports whether the buoyant flow leaves a horizontal face
+// with orientation o and surface-minus-air difference dT (a warm face up,
+// a cool face down) rather than being trapped against it.
+func risesAway(o Orientation, dT float64) bool { return (o == FacingUp) == (dT >= 0) }
+
+// surfaceH returns h of a plain surface (Vertical, FacingUp, FacingDown)
+// at surface and air temperatures ts and ta, with their dual parts: eval's
+// coefficient without its report, for the many cells of a meshed face
+// (it allocates nothing).
+func (n *Natural) surfaceH(s *State, ts, ta dual.Num) dual.Num {
+	p := air.At(ts.Add(ta).Scale(0.5), s.Env.Pressure)
+	dT := ts.Sub(ta)
+	ra := gravityRa(s, p, dT, n.Length)
+	var nu dual.Num
+	switch {
+	case n.Orientation == Vertical:
+		nu = convection.ChurchillChu(ra, p.Pr)
+	case risesAway(n.Orientation, dT.V):
+		nu = convection.HorizontalUp(ra)
+	default:
+		nu = convection.HorizontalDown(ra)
+	}
+	return nu.Mul(p.K).Scale(n.scale() / n.Length)
 }
 
 // gravityRa returns the Rayleigh number g·β·|ΔT|·L³/(ν·α) under the

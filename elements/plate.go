@@ -5,6 +5,7 @@ import (
 	"math"
 	"sort"
 
+	"github.com/heatgraph/heatgraph/elements/dual"
 	"github.com/heatgraph/heatgraph/internal/bigmem"
 )
 
@@ -73,8 +74,9 @@ type Rect struct{ X0, Y0, X1, Y1 float64 }
 
 // PlateJoin joins a region of one face of a plate to a node: a convective
 // or contact conductance per area, a total conductance shared by area (a
-// component's junction-to-board leg, a pad), or grey radiation to large
-// surroundings. Exactly one of PerArea, Total and Emissivity is positive.
+// component's junction-to-board leg, a pad), grey radiation to large
+// surroundings, or natural convection to the air around the face. Exactly
+// one of PerArea, Total, Emissivity and Natural is given.
 type PlateJoin struct {
 	Name    string
 	Face    Face
@@ -88,6 +90,21 @@ type PlateJoin struct {
 	// black-body surroundings: q = ε·σ·A·(T⁴ − T_n⁴) (Incropera et al.,
 	// Fundamentals of Heat and Mass Transfer, eq. 1.7).
 	Emissivity float64
+	// Natural gives natural convection to the node, the air around the
+	// face: every cell of the region takes the coefficient of the
+	// correlation for Orientation (Vertical, FacingUp or FacingDown, see
+	// Natural) at its own temperature against the node's, with the air's
+	// properties at their film temperature, over the whole region's
+	// characteristic length. Length is that length: the height of a
+	// vertical face (0 for the region's extent along its second
+	// coordinate: y on Top and Bottom, z on the edges), area/perimeter
+	// of a horizontal one (0 for that of the region). Taking the region's
+	// mean coefficient at each cell's own temperature difference is the
+	// usual use of a mean correlation on a surface that is not
+	// isothermal; on an isothermal face it is exact to the correlation.
+	Natural     bool
+	Orientation Orientation
+	Length      float64
 	// NodeGiven tells that the node's temperature is given (ambient, a
 	// fixed node): the join then has no Jacobian entries of its own, as
 	// neither the node's column nor its row would be used; what it adds
@@ -145,6 +162,7 @@ type joinKind int
 const (
 	joinLinear    joinKind = iota // q = g·(T − T_n)
 	joinRadiation                 // q = s·(T⁴ − T_n⁴), s = ε·σ·A
+	joinNatural                   // q = h(T, T_n)·A·(T − T_n), A the cell's area
 )
 
 // plateJoin is a join placed on the mesh: the cells it covers, each with
@@ -163,6 +181,9 @@ type plateJoin struct {
 	// given is the sum of a linear join's own conductances, before the
 	// half-cells in series: PerArea × area, or Total, W/K.
 	given float64
+	// natural is the correlation of a natural-convection join, for a
+	// unit area.
+	natural *Natural
 }
 
 // maxPlateEntries bounds the Jacobian entries of a plate: they are indexed
@@ -450,16 +471,22 @@ func (p *Plate) placeJoin(jn PlateJoin) (plateJoin, error) {
 	for _, v := range []struct {
 		name string
 		v    float64
-	}{{"per_area", jn.PerArea}, {"total", jn.Total}, {"emissivity", jn.Emissivity}} {
+	}{{"per_area", jn.PerArea}, {"total", jn.Total}, {"emissivity", jn.Emissivity}, {"length", jn.Length}} {
 		if math.IsNaN(v.v) || math.IsInf(v.v, 0) || v.v < 0 {
 			return plateJoin{}, fmt.Errorf("%s must be zero or a positive number, got %g", v.name, v.v)
 		}
-		if v.v > 0 {
+		if v.v > 0 && v.name != "length" {
 			set++
 		}
 	}
+	if jn.Natural {
+		set++
+		if jn.Orientation != Vertical && jn.Orientation != FacingUp && jn.Orientation != FacingDown {
+			return plateJoin{}, fmt.Errorf("natural convection from a face is vertical, facing up or facing down, not %s", jn.Orientation)
+		}
+	}
 	if set != 1 {
-		return plateJoin{}, fmt.Errorf("exactly one of per_area, total and emissivity must be positive, got %d", set)
+		return plateJoin{}, fmt.Errorf("exactly one of per_area, total, emissivity and natural must be given, got %d", set)
 	}
 	if jn.Emissivity > 1 {
 		return plateJoin{}, fmt.Errorf("emissivity must be at most 1, got %g", jn.Emissivity)
@@ -481,6 +508,19 @@ func (p *Plate) placeJoin(jn PlateJoin) (plateJoin, error) {
 	if pj.pos < 0 {
 		pj.pos = len(p.nodes)
 		p.nodes = append(p.nodes, jn.Node)
+	}
+	if jn.Natural {
+		length := jn.Length
+		if length == 0 {
+			if jn.Orientation == Vertical {
+				length = g.dv
+			} else {
+				length = g.du * g.dv / (2 * (g.du + g.dv))
+			}
+		}
+		pj.kind = joinNatural
+		pj.natural = &Natural{Orientation: jn.Orientation, Area: 1, Length: length}
+		return pj, nil // the shares are the cells' areas
 	}
 	for c, a := range g.area {
 		switch {
@@ -578,13 +618,18 @@ func (p *Plate) JoinHeat(s *State) []float64 {
 		jn := &p.joins[i]
 		tn := s.X[jn.node]
 		sum := 0.0
-		if jn.kind == joinRadiation {
+		switch jn.kind {
+		case joinRadiation:
 			tn4 := tn * tn * tn * tn
 			for q, c := range jn.cells {
 				tc := t[c]
 				sum += jn.share[q] * (tc*tc*tc*tc - tn4)
 			}
-		} else {
+		case joinNatural:
+			for q, c := range jn.cells {
+				sum += jn.share[q] * jn.natural.surfaceH(s, dual.C(t[c]), dual.C(tn)).V * (t[c] - tn)
+			}
+		default:
 			for q, c := range jn.cells {
 				sum += jn.share[q] * (t[c] - tn)
 			}
@@ -678,8 +723,52 @@ func (p *Plate) Report(s *State) Report {
 		if w := p.radiationWarning(i, sm.Hottest); w != "" {
 			rep.Warnings = append(rep.Warnings, w)
 		}
+		if p.joins[i].kind == joinNatural {
+			d, w := p.naturalReport(s, i)
+			rep.Details = append(rep.Details, d...)
+			rep.Warnings = append(rep.Warnings, w...)
+		}
 	}
 	return rep
+}
+
+// naturalReport gives a natural-convection join's correlation and its
+// coefficient at the region's mean temperature, and warns where a cell's
+// Rayleigh number lies outside the correlation's range (judged at the
+// region's coolest and hottest cells, between which Ra is monotonic in
+// |ΔT| unless the region straddles the air's temperature) and where the
+// half-cell left out between centre and face matters.
+func (p *Plate) naturalReport(s *State, i int) ([]Detail, []string) {
+	pj := &p.joins[i]
+	t := s.X[p.Base : p.Base+p.n]
+	tn := s.X[pj.node]
+	lo, hi := math.Inf(1), math.Inf(-1)
+	for _, c := range pj.cells {
+		lo, hi = math.Min(lo, t[c]), math.Max(hi, t[c])
+	}
+	name := p.joinName(i)
+	ns := pj.natural.evalAt(s, p.regionMean(s, i), tn, -1)
+	d := []Detail{
+		{Name: "correlation " + name, Text: ns.correlation + ", " + pj.natural.Orientation.String()},
+		{Name: "characteristic_length " + name, Value: pj.natural.Length, Unit: "m"},
+		{Name: "h " + name, Value: ns.h.V, Unit: "W/(m2 K)"},
+	}
+	var w []string
+	seen := map[string]bool{}
+	for _, tc := range []float64{lo, hi} {
+		for _, c := range pj.natural.evalAt(s, tc, tn, -1).ranges {
+			if m := c.r.Check(c.v); m != "" && !seen[m] {
+				seen[m] = true
+				w = append(w, fmt.Sprintf("join %s: at a cell of %.4g °C: %s", name, tc-273.15, m))
+			}
+		}
+	}
+	// The half-cell in series, as for radiation (radiationWarning), with
+	// h at the hottest cell.
+	if worst := p.centreFraction(i, pj.natural.evalAt(s, hi, tn, -1).h.V); worst > 0.05 {
+		w = append(w, fmt.Sprintf("join %s: natural convection leaves from the cell centres; the conduction between a centre and the face is %.2g of the convection's own resistance and is left out, so the heat is overestimated by up to about that fraction; use thinner cells at that face", name, worst))
+	}
+	return d, w
 }
 
 // radiationWarning warns when a radiation join's leaving from the cell
@@ -693,20 +782,55 @@ func (p *Plate) radiationWarning(i int, hottest float64) string {
 		return ""
 	}
 	hr := 4 * jn.Emissivity * StefanBoltzmann * hottest * hottest * hottest
-	// The half-cell depends on the cell's layer alone: the cells run in
-	// increasing order, so each layer is worked out once.
-	worst, nxy, last := 0.0, p.NX*p.NY, -1
-	for _, c := range pj.cells {
-		if k := int(c) / nxy; k != last {
-			last = k
-			worst = math.Max(worst, hr/p.halfCell(jn.Face, int(c), 1))
-		}
-	}
+	worst := p.centreFraction(i, hr)
 	if worst <= 0.05 {
 		return ""
 	}
 	return fmt.Sprintf("join %s: radiation leaves from the cell centres; the conduction between a centre and the face is %.2g of the radiation's own resistance and is left out, so the heat radiated is overestimated by up to about that fraction; use thinner cells at that face",
 		p.joinName(i), worst)
+}
+
+// JoinCoefficient returns, for a natural-convection join i, its
+// coefficient at the region's mean temperature, W/(m² K), and the
+// correlation in use there; ok is false for the other joins.
+func (p *Plate) JoinCoefficient(s *State, i int) (h float64, correlation string, ok bool) {
+	pj := &p.joins[i]
+	if pj.kind != joinNatural {
+		return 0, "", false
+	}
+	ns := pj.natural.evalAt(s, p.regionMean(s, i), s.X[pj.node], -1)
+	return ns.h.V, ns.correlation, true
+}
+
+// regionMean returns the area-weighted mean temperature of join i's cells.
+func (p *Plate) regionMean(s *State, i int) float64 {
+	pj := &p.joins[i]
+	t := s.X[p.Base : p.Base+p.n]
+	mean, area := 0.0, 0.0
+	for q, c := range pj.cells {
+		mean += pj.share[q] * t[c]
+		area += pj.share[q]
+	}
+	if area == 0 {
+		return s.X[pj.node]
+	}
+	return mean / area
+}
+
+// centreFraction returns, for a join acting at the cell centres with a
+// coefficient h (W/(m² K)), the largest ratio over its cells of the
+// half-cell's conduction resistance between centre and face to the join's
+// own, h·d/(2k). The half-cell depends on the cell's layer alone: the
+// cells run in increasing order, so each layer is worked out once.
+func (p *Plate) centreFraction(i int, h float64) float64 {
+	worst, nxy, last := 0.0, p.NX*p.NY, -1
+	for _, c := range p.joins[i].cells {
+		if k := int(c) / nxy; k != last {
+			last = k
+			worst = math.Max(worst, h/p.halfCell(p.Joins[i].Face, int(c), 1))
+		}
+	}
+	return worst
 }
 
 // regionWarnings warns when a region is smaller than the cells that carry

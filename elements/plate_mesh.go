@@ -5,6 +5,7 @@ import (
 	"sort"
 	"sync"
 
+	"github.com/heatgraph/heatgraph/elements/dual"
 	"github.com/heatgraph/heatgraph/internal/bigmem"
 )
 
@@ -177,6 +178,35 @@ func (p *Plate) evalCells(s *State, l *Local, c0, c1 int, acc *plateAcc, needN [
 				if l.J != nil {
 					l.E(diag.at(c), -g)
 				}
+			}
+		case joinNatural:
+			// q = h·A·ΔT with h a function of both temperatures: the
+			// correlation is evaluated twice per cell for its two exact
+			// derivatives (dual numbers seeded on each).
+			for q := lo; q < hi; q++ {
+				c := int(jn.cells[q])
+				a := jn.share[q]
+				tc := t[c]
+				dT := tc - tn
+				if l.J == nil {
+					f := a * jn.natural.surfaceH(s, dual.C(tc), dual.C(tn)).V * dT
+					l.R[c] -= f
+					qsum += f
+					continue
+				}
+				hc := jn.natural.surfaceH(s, dual.Num{V: tc, D: 1}, dual.C(tn))
+				f := a * hc.V * dT
+				l.R[c] -= f
+				qsum += f
+				dc := a * (hc.V + hc.D*dT)
+				if wantN {
+					hn := jn.natural.surfaceH(s, dual.C(tc), dual.Num{V: tn, D: 1})
+					dn := a * (hc.V - hn.D*dT)
+					l.E(jn.entry+2*q, dn)
+					l.E(jn.entry+2*q+1, dc)
+					nn -= dn
+				}
+				l.E(diag.at(c), -dc)
 			}
 		case joinRadiation:
 			tn3 := tn * tn * tn

@@ -178,11 +178,11 @@ links:
 // be set by path; a path that names nothing says what would.
 func TestOverridePlates(t *testing.T) {
 	m, err := ReadFileWith("../examples/camera-board.yaml", overrides(t,
-		"plates.board.faces.0.h=8 W/(m2 K)", "plates.board.board.thickness=2 mm",
+		"plates.spreader.faces.2.h=8 W/(m2 K)", "plates.board.board.thickness=2 mm",
 		"plates.board.heat.0.power=1 W", "plates.spreader.thickness=3 mm", "plates.board.limit=95 degC"))
 	require.NoError(t, err)
 	b, s := m.Plates[0], m.Plates[1]
-	assert.Equal(t, 8.0, b.Faces[0].H)
+	assert.Equal(t, 8.0, s.Faces[2].H)
 	assert.InDelta(t, 2e-3, b.Thickness(), 1e-15)
 	assert.Equal(t, 1.0, b.Heats[0].Power)
 	assert.InDelta(t, 3e-3, s.Thickness(), 1e-15)
@@ -203,7 +203,7 @@ func TestOverridePlates(t *testing.T) {
 	for _, p := range Parameters("../examples/camera-board.yaml", data, nil) {
 		paths = append(paths, p.Path)
 	}
-	for _, p := range []string{"plates.board.faces.0.h", "plates.board.faces.4.resistance", "plates.spreader.faces.0.contact", "plates.board.heat.0.power", "plates.board.board.thickness", "plates.spreader.thickness"} {
+	for _, p := range []string{"plates.spreader.faces.2.h", "plates.board.faces.4.resistance", "plates.spreader.faces.0.contact", "plates.board.heat.0.power", "plates.board.board.thickness", "plates.spreader.thickness"} {
 		assert.Contains(t, paths, p)
 	}
 }

@@ -100,6 +100,10 @@ func (net *Network) buildPlates(m *Model) Problems {
 			case f.Total > 0:
 				j.Total, j.Name = f.Total, name("conductance")
 				addJoin(j, "conductance")
+			case f.Natural != "":
+				j.Natural, j.Length, j.Name = true, f.Height, name("natural convection")
+				j.Orientation = map[string]elements.Orientation{"vertical": elements.Vertical, "facing-up": elements.FacingUp, "facing-down": elements.FacingDown}[f.Natural]
+				addJoin(j, "natural")
 			}
 			if f.Emiss > 0 {
 				r := elements.PlateJoin{Face: face, Region: j.Region, Node: j.Node, NodeGiven: j.NodeGiven, Emissivity: f.Emiss, Name: name("radiation")}
@@ -200,6 +204,9 @@ func (net *Network) plateResults(s *elements.State, sums []elements.PlateSummary
 		r.Joins = append([]PlateJoinResult(nil), bp.joins...)
 		for i := range r.Joins {
 			r.Joins[i].Heat = q[i]
+			if h, c, ok := bp.el.JoinCoefficient(s, i); ok {
+				r.Joins[i].Coefficient, r.Joins[i].Correlation = h, c
+			}
 		}
 		r.Parts = append([]PlateFootprint(nil), bp.parts...)
 		h := 0

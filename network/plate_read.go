@@ -79,8 +79,13 @@ type PlateFaceSpec struct {
 	Contact   float64 // area-specific resistance, K m2/W
 	Total     float64 // a total conductance shared by area, W/K
 	Emiss     float64 // emissivity for radiation to To
-	Note      string
-	Line      int
+	// Natural is natural convection to To: vertical, facing-up or
+	// facing-down ("" for none); Height is a vertical face's height, m (0
+	// for the region's extent along its second coordinate).
+	Natural string
+	Height  float64
+	Note    string
+	Line    int
 }
 
 // PlateHeatSpec is heat dissipated in a region of a face of a plate.
@@ -105,7 +110,9 @@ var (
 	layerKeys     = []string{"thickness", "material", "conductivity", "through_conductivity", "density", "specific_heat", "board", "through_cells"}
 	boardKeys     = []string{"thickness", "copper", "laminate_conductivity", "laminate_through_conductivity"}
 	copperKeys    = []string{"thickness", "coverage"}
-	plateFaceKeys = []string{"face", "region", "to", "h", "contact", "resistance", "conductance", "emissivity", "note"}
+	plateFaceKeys = []string{"face", "region", "to", "h", "contact", "resistance", "conductance", "natural", "height", "emissivity", "note"}
+	// faceNatural are the attitudes a face may have in natural convection.
+	faceNatural   = []string{"vertical", "facing-up", "facing-down"}
 	plateHeatKeys = []string{"face", "region", "power", "note"}
 	plateFaces    = []string{"top", "bottom", "x_min", "x_max", "y_min", "y_max"}
 )
@@ -428,21 +435,30 @@ func (r *reader) readPlateFace(o *object, p *PlateSpec, ids map[string]nodeRef) 
 	}
 	f.To = to
 	conductive := 0
-	for _, k := range []string{"h", "contact", "resistance", "conductance"} {
+	for _, k := range []string{"h", "contact", "resistance", "conductance", "natural"} {
 		if o.has(k) {
 			conductive++
 		}
 	}
 	if conductive > 1 {
-		r.addf(o.node, o.path, "give one of h, contact, resistance and conductance (and emissivity, if the face also radiates)")
+		r.addf(o.node, o.path, "give one of h, contact, resistance, conductance and natural (and emissivity, if the face also radiates)")
 		return f, false
 	}
 	if conductive == 0 && !o.has("emissivity") {
-		r.addf(o.node, o.path, "needs how the face passes heat: h (convection, W/(m2 K)), contact (K*cm2/W), resistance (K/W) or conductance (W/K) for the whole face or region, and/or emissivity")
+		r.addf(o.node, o.path, "needs how the face passes heat: h (convection, W/(m2 K)), natural (natural convection: vertical, facing-up or facing-down), contact (K*cm2/W), resistance (K/W) or conductance (W/K) for the whole face or region, and/or emissivity")
+		return f, false
+	}
+	if v := o.values["natural"]; o.has("height") && (v == nil || v.Value != "vertical") {
+		r.addf(o.values["height"], o.field("height"), "height goes with natural: vertical (a horizontal face's length is its area over its perimeter, from the region)")
 		return f, false
 	}
 	good := true
 	switch {
+	case o.has("natural"):
+		f.Natural, good = o.choice("natural", "attitude", faceNatural)
+		if good && o.has("height") {
+			f.Height, good = o.positive("height", units.Length, true)
+		}
 	case o.has("h"):
 		f.H, good = o.positive("h", units.HeatTransferCoefficient, true)
 	case o.has("contact"):

@@ -37,6 +37,11 @@ type PlateJoinResult struct {
 	Node string  // the node joined
 	Kind string  // convection, radiation, contact, footprint ...
 	Heat float64 // W, positive out of the plate into the node
+	// Coefficient is a natural-convection join's h at the region's mean
+	// temperature, W/(m² K), with the Correlation in use there; 0 and ""
+	// for the other joins.
+	Coefficient float64
+	Correlation string
 }
 
 // PlateFootprint is a rectangle on a face of a plate: a component's

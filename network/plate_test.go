@@ -143,3 +143,53 @@ links:
 		}
 	}
 }
+
+// Natural convection on a plate's faces, in the isothermal limit, gives
+// what the lumped natural-convection links give for the same surfaces: a
+// horizontal lid facing up and down over its whole area (L = A/P), and a
+// vertical plate of the same size whose height is its y extent.
+func TestPlateNaturalMatchesLumpedLinks(t *testing.T) {
+	meshed := solveText(t, `
+ambient: {temperature: 25 degC}
+plates:
+  - id: lid
+    size: [200 mm, 150 mm]
+    cell: 10 mm
+    conductivity: 1e6 W/(m K)
+    thickness: 10 mm
+    faces:
+      - {face: top, to: ambient, natural: facing-up}
+      - {face: bottom, to: ambient, natural: facing-down}
+    heat:
+      - {face: top, region: [50 mm, 50 mm, 90 mm, 80 mm], power: 6 W}
+  - id: wall
+    size: [200 mm, 150 mm]
+    cell: 10 mm
+    conductivity: 1e6 W/(m K)
+    thickness: 10 mm
+    faces:
+      - {face: top, to: ambient, natural: vertical}
+      - {face: bottom, to: ambient, natural: vertical, height: 150 mm}
+    heat:
+      - {face: top, region: [50 mm, 50 mm, 90 mm, 80 mm], power: 6 W}
+`)
+	lumped := solveText(t, `
+ambient: {temperature: 25 degC}
+nodes:
+  - {id: lid, power: 6 W}
+  - {id: wall, power: 6 W}
+links:
+  - {kind: natural, from: lid, orientation: facing-up, length: 200 mm, width: 150 mm}
+  - {kind: natural, from: lid, orientation: facing-down, length: 200 mm, width: 150 mm}
+  - {kind: natural, from: wall, orientation: vertical, height: 150 mm, width: 200 mm}
+  - {kind: natural, from: wall, orientation: vertical, height: 150 mm, width: 200 mm}
+`)
+	for _, id := range []string{"lid", "wall"} {
+		a, b := nodeT(t, meshed, id), nodeT(t, lumped, id)
+		// The plate's in-plane conductance of k·t = 1e4 W/K leaves
+		// differences of about 1e-4 K across it.
+		if math.Abs(a-b) > 1e-3 {
+			t.Errorf("%s: meshed %.6f K, lumped %.6f K", id, a, b)
+		}
+	}
+}

@@ -268,6 +268,11 @@ func writePlates(tw *textWriter, sol *network.Solution) {
 			total += j.Heat
 		}
 		tw.printf("    %-*s  %10s\n", nw, "all joins", fnum("%.3f", noNegZero(total, 3)))
+		for _, j := range p.Joins {
+			if j.Correlation != "" {
+				tw.printf("    %s: h %s W/(m2 K) at the region's mean temperature, %s\n", j.Name, fnum("%.3g", j.Coefficient), j.Correlation)
+			}
+		}
 	}
 }
 
@@ -306,6 +311,10 @@ type PlateJoinReport struct {
 	Node  string `json:"node"`
 	Kind  string `json:"kind"`
 	HeatW Number `json:"heat_W"`
+	// HW and Correlation: a natural-convection join's coefficient at the
+	// region's mean temperature and the correlation behind it.
+	HW          *Number `json:"h_W_m2K,omitempty"`
+	Correlation string  `json:"correlation,omitempty"`
 }
 
 // PlateFootprintReport is a part's footprint on a face of a plate, m from the
@@ -332,7 +341,12 @@ func newPlateReports(sol *network.Solution) []PlateReport {
 			r.LimitC, r.MarginK, r.Status = num(celsius(p.Limit)), num(p.Margin), string(p.Status)
 		}
 		for _, j := range p.Joins {
-			r.Joins = append(r.Joins, PlateJoinReport{Name: j.Name, Face: j.Face, Node: j.Node, Kind: j.Kind, HeatW: Number(j.Heat)})
+			jr := PlateJoinReport{Name: j.Name, Face: j.Face, Node: j.Node, Kind: j.Kind, HeatW: Number(j.Heat), Correlation: j.Correlation}
+			if j.Correlation != "" {
+				h := Number(j.Coefficient)
+				jr.HW = &h
+			}
+			r.Joins = append(r.Joins, jr)
 		}
 		for _, fp := range p.Parts {
 			r.Parts = append(r.Parts, PlateFootprintReport{Name: fp.Name, Face: fp.Face, X0M: Number(fp.X0), Y0M: Number(fp.Y0),
@@ -373,7 +387,11 @@ func newHTMLPlates(sol *network.Solution) []htmlPlate {
 		}
 		hp.Parts = strings.Join(parts, ", ")
 		for _, j := range p.Joins {
-			hp.Joins = append(hp.Joins, htmlJoin{Name: j.Name, Node: j.Node, Heat: fnum("%.3f", noNegZero(j.Heat, 3))})
+			name := j.Name
+			if j.Correlation != "" {
+				name += fmt.Sprintf(": h %s W/(m² K), %s", fnum("%.3g", j.Coefficient), j.Correlation)
+			}
+			hp.Joins = append(hp.Joins, htmlJoin{Name: name, Node: j.Node, Heat: fnum("%.3f", noNegZero(j.Heat, 3))})
 		}
 		var svg bytes.Buffer
 		if err := WritePlateSVG(&svg, p, HeatMapOptions{}); err != nil {
