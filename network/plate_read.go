@@ -22,7 +22,7 @@ import (
 //	    board: {thickness: 1.6 mm, copper: [{thickness: 35 um, coverage: 30 %}, ...]}
 //	    limit: 105 degC
 //	    faces:
-//	      - {face: top, to: box-air, h: 6 W/(m2 K), emissivity: 0.9}
+//	      - {face: top, to: box-air, natural: vertical, emissivity: 0.9}
 //	      - {face: bottom, region: [10 mm, 10 mm, 40 mm, 40 mm], to: sink, contact: 1 K*cm2/W}
 //	    heat:
 //	      - {region: [0 mm, 0 mm, 20 mm, 90 mm], power: 1.5 W}
@@ -181,7 +181,7 @@ func (r *reader) readPlates(n *yaml.Node, m *Model, ids map[string]nodeRef) []Pl
 			total += p.NX * p.NY * (through - 1)
 		}
 		if o.has("faces") {
-			for j, fi := range r.list(o.values["faces"], o.field("faces"), "entries with face, to and h, contact, resistance, conductance or emissivity") {
+			for j, fi := range r.list(o.values["faces"], o.field("faces"), "entries with face, to and h, contact, resistance, conductance, natural or emissivity") {
 				fo := r.newObject(fi, o.field("faces")+"["+itoa(j)+"]")
 				if fo == nil {
 					continue
