@@ -790,6 +790,40 @@ func (p *Plate) radiationWarning(i int, hottest float64) string {
 		p.joinName(i), worst)
 }
 
+// Accuracy returns the accuracy of the natural-convection correlations on
+// the plate's faces (Uncertain): that of the least accurate among them,
+// and 0 when the plate has none, so that it takes no part in accuracy
+// bands. Its joins' coefficients are scaled together (ScaledBy): the
+// bands treat their errors as one, which for the faces of one plate in
+// one air space is the likelier case.
+func (p *Plate) Accuracy(s *State) (float64, string) {
+	acc, src := 0.0, ""
+	for i := range p.joins {
+		if p.joins[i].kind != joinNatural {
+			continue
+		}
+		if a, text := p.joins[i].natural.Accuracy(s); a > acc {
+			acc, src = a, text
+		}
+	}
+	return acc, src
+}
+
+// ScaledBy returns a copy of the plate whose natural-convection joins all
+// have their coefficient multiplied by k (Uncertain).
+func (p *Plate) ScaledBy(k float64) Element {
+	c := *p
+	c.joins = append([]plateJoin(nil), p.joins...)
+	for i := range c.joins {
+		if c.joins[i].kind == joinNatural {
+			n := *c.joins[i].natural
+			n.hScale = k * n.scale()
+			c.joins[i].natural = &n
+		}
+	}
+	return &c
+}
+
 // JoinCoefficient returns, for a natural-convection join i, its
 // coefficient at the region's mean temperature, W/(m² K), and the
 // correlation in use there; ok is false for the other joins.

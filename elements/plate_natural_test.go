@@ -195,3 +195,49 @@ func TestSurfaceHIsEvalH(t *testing.T) {
 		}
 	}
 }
+
+// A plate with natural convection on its faces has an accuracy band: the
+// least accurate of its correlations (±20 % for the horizontal faces,
+// from the lumped element), and scaling its coefficient by k scales the
+// heat of its natural joins by k, so the coefficient slope ∂R/∂ln h of a
+// node's row is the natural heat it receives. A plate without natural
+// joins has none.
+func TestPlateNaturalAccuracy(t *testing.T) {
+	p := naturalPlate(t)
+	x := spreadTemps(22, 300, 350, 4)
+	s := &State{X: x, Env: testEnv}
+	acc, src := p.Accuracy(s)
+	if acc != 0.20 || !strings.Contains(src, "horizontal") {
+		t.Errorf("accuracy %g (%s), want 0.20 of the horizontal plates", acc, src)
+	}
+	q := p.JoinHeat(s)
+	q2 := p.ScaledBy(1.3).(*Plate).JoinHeat(s)
+	for i, name := range []string{"top", "under", "edge"} {
+		if math.Abs(q2[i]-1.3*q[i]) > 1e-12*math.Abs(q[i]) {
+			t.Errorf("%s: scaled by 1.3 carries %g W, want 1.3 × %g W", name, q2[i], q[i])
+		}
+	}
+	if q2[3] != q[3] {
+		t.Errorf("the rail (given h) changed: %g W, was %g W", q2[3], q[3])
+	}
+	rows := p.Rows()
+	l := NewLocal(len(rows), len(p.Vars()), false)
+	CoefficientSlope(p, s, l)
+	for r, v := range rows {
+		want := 0.0
+		switch v {
+		case 0:
+			want = q[0] + q[1]
+		case 1:
+			want = q[2]
+		default:
+			continue
+		}
+		if math.Abs(l.R[r]-want) > 1e-8*math.Abs(want) {
+			t.Errorf("slope of node %d's row %g W, want its natural heat %g W", v, l.R[r], want)
+		}
+	}
+	if a, _ := smallPlate(t).Accuracy(s); a != 0 {
+		t.Errorf("a plate without natural joins has accuracy %g", a)
+	}
+}

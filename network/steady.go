@@ -191,10 +191,13 @@ func (p *Steady) CoefficientSlopes(x []float64) ([]CoefficientSlope, error) {
 		if !ok {
 			continue
 		}
+		acc, src := u.Accuracy(&p.state)
+		if acc == 0 {
+			continue // a plate without natural convection on its faces
+		}
 		rows := u.Rows()
 		loc := elements.NewLocal(len(rows), len(u.Vars()), false)
 		elements.CoefficientSlope(u, &p.state, loc)
-		acc, src := u.Accuracy(&p.state)
 		cs := CoefficientSlope{Link: l.ID, Kind: l.Kind, Accuracy: acc, Source: src, Slope: make([]float64, p.Size())}
 		for r, v := range rows {
 			if f := p.net.free[v]; f >= 0 {
