@@ -118,22 +118,36 @@ func TestAMGLag(t *testing.T) {
 		for i := 0; i < a.N; i++ {
 			a.Add(i, i, -grow*float64(i%7))
 		}
-		if err := s.Factorize(a); err != nil {
-			t.Fatal(err)
-		}
-		if fresh := amg.Fresh(); fresh != (step == 0) && step < 2 {
-			t.Errorf("step %d: fresh %v", step, fresh)
-		}
-		if err := s.Solve(x, b); err != nil {
-			t.Fatalf("step %d: %v", step, err)
-		}
-		if got := relResidual(a, x, b); got > DefaultTol {
-			t.Errorf("step %d: residual %.3g", step, got)
-		}
-		if e := relErr(x, denseSolve(t, a, b, false)); e > 1e-6 {
-			t.Errorf("step %d: error %.3g against gonum dense LU", step, e)
-		}
+		lagStep(t, s, amg, a, x, b, step, step < 2)
 	}
+	renewed(t, s, amg, a)
+}
+
+// lagStep factorizes a with the lagging hierarchy amg, checks that the
+// hierarchy was built only at step 0 (when judged), and that the solve
+// meets its tolerance and agrees with gonum's dense LU.
+func lagStep(t *testing.T, s Solver, amg *AMG, a *Matrix, x, b []float64, step int, judged bool) {
+	t.Helper()
+	if err := s.Factorize(a); err != nil {
+		t.Fatal(err)
+	}
+	if fresh := amg.Fresh(); judged && fresh != (step == 0) {
+		t.Errorf("step %d: fresh %v, want %v", step, fresh, step == 0)
+	}
+	if err := s.Solve(x, b); err != nil {
+		t.Fatalf("step %d: %v", step, err)
+	}
+	if got := relResidual(a, x, b); got > DefaultTol {
+		t.Errorf("step %d: residual %.3g", step, got)
+	}
+	if e := relErr(x, denseSolve(t, a, b, false)); e > 1e-6 {
+		t.Errorf("step %d: error %.3g against gonum dense LU", step, e)
+	}
+}
+
+// renewed checks that Renew makes the next Factorize build a hierarchy.
+func renewed(t *testing.T, s Solver, amg *AMG, a *Matrix) {
+	t.Helper()
 	amg.Renew()
 	if err := s.Factorize(a); err != nil || !amg.Fresh() {
 		t.Fatalf("after Renew: %v, fresh %v", err, amg.Fresh())
@@ -175,26 +189,9 @@ func TestAMGLagBiCGStab(t *testing.T) {
 		for i := 0; i < a.N; i++ {
 			a.Add(i, i, -grow*float64(i%7))
 		}
-		if err := s.Factorize(a); err != nil {
-			t.Fatal(err)
-		}
-		if fresh := amg.Fresh(); fresh != (step == 0) {
-			t.Errorf("step %d: fresh %v, want %v", step, fresh, step == 0)
-		}
-		if err := s.Solve(x, b); err != nil {
-			t.Fatalf("step %d: %v", step, err)
-		}
-		if got := relResidual(a, x, b); got > DefaultTol {
-			t.Errorf("step %d: residual %.3g", step, got)
-		}
-		if e := relErr(x, denseSolve(t, a, b, false)); e > 1e-6 {
-			t.Errorf("step %d: error %.3g against gonum dense LU", step, e)
-		}
+		lagStep(t, s, amg, a, x, b, step, true)
 	}
-	amg.Renew()
-	if err := s.Factorize(a); err != nil || !amg.Fresh() {
-		t.Fatalf("after Renew: %v, fresh %v", err, amg.Fresh())
-	}
+	renewed(t, s, amg, a)
 }
 
 // On vectors long enough to be split into blocks worked on in parallel,

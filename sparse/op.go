@@ -3,7 +3,6 @@ package sparse
 import (
 	"fmt"
 	"math"
-	"sort"
 
 	"github.com/heatgraph/heatgraph/internal/bigmem"
 )
@@ -61,23 +60,7 @@ func (c *narrowing) op(a *Matrix) (*op, error) {
 }
 
 // Index returns the position of entry (i, j), or -1 when it is not stored.
-func (m *op) Index(i, j int) int {
-	lo, hi := m.RowPtr[i], m.RowPtr[i+1]
-	cols := m.Col[lo:hi]
-	if len(cols) <= 16 {
-		for k, c := range cols {
-			if int(c) == j {
-				return lo + k
-			}
-		}
-		return -1
-	}
-	k := sort.Search(len(cols), func(k int) bool { return int(cols[k]) >= j })
-	if k < len(cols) && int(cols[k]) == j {
-		return lo + k
-	}
-	return -1
-}
+func (m *op) Index(i, j int) int { return findCol(m.RowPtr, m.Col, i, j) }
 
 // At returns entry (i, j), zero when it is not stored.
 func (m *op) At(i, j int) float64 {

@@ -9,7 +9,6 @@ import (
 	"fmt"
 	"math"
 	"slices"
-	"sort"
 
 	"github.com/heatgraph/heatgraph/internal/bigmem"
 )
@@ -219,21 +218,24 @@ func (m *Matrix) Zero() {
 
 // Index returns the position of entry (i, j) in Val, or -1 if it is not in
 // the pattern.
-func (m *Matrix) Index(i, j int) int {
-	lo, hi := m.RowPtr[i], m.RowPtr[i+1]
-	cols := m.Col[lo:hi]
-	// Rows of a thermal network are short: a linear scan beats a binary
-	// search below a few dozen entries.
+func (m *Matrix) Index(i, j int) int { return findCol(m.RowPtr, m.Col, i, j) }
+
+// findCol returns the position of column j in row i of a pattern with
+// sorted rows, or -1. Rows of a thermal network are short: a linear scan
+// beats a binary search below a few dozen entries.
+func findCol[I int | int32](ptr []int, col []I, i, j int) int {
+	lo, hi := ptr[i], ptr[i+1]
+	cols := col[lo:hi]
 	if len(cols) <= 16 {
 		for k, c := range cols {
-			if c == j {
+			if int(c) == j {
 				return lo + k
 			}
 		}
 		return -1
 	}
-	k := sort.SearchInts(cols, j)
-	if k < len(cols) && cols[k] == j {
+	k, found := slices.BinarySearch(cols, I(j))
+	if found {
 		return lo + k
 	}
 	return -1
