@@ -26,7 +26,7 @@ import (
 type Options struct {
 	IO       *iostreams.IOStreams
 	Sizes    []string      // numbers of cells, as written (1e3, 1e6)
-	Shapes   []string      // board, block
+	Shapes   []string      // board, block, duct
 	Repeat   int           // runs of each case
 	Keep     string        // write the models and results here and keep them; "" for a temporary folder
 	Markdown bool          // print the table as Markdown
@@ -68,6 +68,11 @@ Shapes:
          each direction (10 × 10 × 10 for 1e3); two heated regions on its
          top, a part placed on it, a heated region on one side;
          convection and radiation from all six faces.
+  duct   a 100 × 120 mm aluminium heat-sink base, one cell through its
+         thickness, over two fields of fins in a duct, the air warming
+         through one and then the other (fin channels in series): the
+         Jacobian is not symmetric, as in any model with air streams.
+         Two power modules on it. Not measured unless asked for.
 Radiation makes every solve nonlinear. The models are invented, with
 realistic powers; --keep writes them (and the results) to a folder.
 
@@ -99,7 +104,7 @@ line, 4 when a solve could not run or its report could not be read.`,
 		},
 	}
 	cmd.Flags().StringSliceVar(&o.Sizes, "sizes", DefaultSizes, "numbers of cells of the models, comma-separated")
-	cmd.Flags().StringSliceVar(&o.Shapes, "shapes", Shapes, "shapes of the models: "+strings.Join(Shapes, ", "))
+	cmd.Flags().StringSliceVar(&o.Shapes, "shapes", DefaultShapes, "shapes of the models: "+strings.Join(Shapes, ", "))
 	cmd.Flags().IntVar(&o.Repeat, "repeat", 1, "runs of each case: the time is their median, the memory their largest")
 	cmd.Flags().StringVar(&o.Keep, "keep", "", "write the models and results to this folder and keep them (default: a temporary folder, removed)")
 	cmd.Flags().BoolVar(&o.Markdown, "markdown", false, "print the table in Markdown")

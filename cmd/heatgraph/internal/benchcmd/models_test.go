@@ -29,13 +29,14 @@ func TestCaseMeshes(t *testing.T) {
 		assert.Equal(t, [3]int{c.nx, c.ny, c.nz}, [3]int{got.NX, got.NY, got.NZ}, "%s %g", c.shape, c.size)
 	}
 	// Every size from 1000 up meshes into about its number of cells: a board
-	// within 2 %, a block, whose cells come in near-cubes, within 5 %.
+	// or a duct's base within 2 %, a block, whose cells come in near-cubes,
+	// within 5 %.
 	for _, shape := range Shapes {
 		for size := 1000.0; size <= 2e7; size *= 1.37 {
 			size = math.Round(size)
 			c, err := NewCase(shape, size, "x")
 			require.NoError(t, err)
-			tol := map[string]float64{"board": 0.02, "block": 0.05}[shape]
+			tol := map[string]float64{"board": 0.02, "duct": 0.02, "block": 0.05}[shape]
 			assert.InDelta(t, 1, float64(c.Cells())/size, tol, "%s %g: %d × %d × %d", shape, size, c.NX, c.NY, c.NZ)
 		}
 	}
@@ -58,9 +59,10 @@ func TestParseSize(t *testing.T) {
 // The generated models are valid: they parse, with the mesh of their
 // case, and build into a network whose unknowns are the cells and the
 // nodes that are not cells (the board's five junctions and its heat sink,
-// the block's one junction).
+// the block's one junction, the duct's two fin roots, two air nodes and
+// two junctions).
 func TestModelsBuild(t *testing.T) {
-	others := map[string]int{"board": 6, "block": 1}
+	others := map[string]int{"board": 6, "block": 1, "duct": 6}
 	for _, shape := range Shapes {
 		for _, size := range []float64{8, 1e3, 1e4} {
 			c, err := NewCase(shape, size, "n")

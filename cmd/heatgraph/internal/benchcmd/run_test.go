@@ -41,7 +41,7 @@ func TestMain(m *testing.M) {
 	os.Exit(m.Run())
 }
 
-// The whole bench on the smallest board and block: every model is solved
+// The whole bench on the smallest board, block and duct: every model is solved
 // by a heatgraph process, converges, and closes its energy balance; the
 // table has a row for each with every column filled in but the targets.
 func TestBenchSolvesSmallModels(t *testing.T) {
@@ -52,8 +52,8 @@ func TestBenchSolvesSmallModels(t *testing.T) {
 	require.NoError(t, err, "%s\n%s", out, errOut)
 	lines := strings.Split(out.String(), "\n")
 	assert.Equal(t, benchcmd.Columns, regexp.MustCompile(`\s{2,}`).Split(strings.TrimSpace(lines[0]), -1))
-	want := map[string]int{"board 1e3": 992, "board 2e2": 196, "block 1e3": 1000, "block 2e2": 0}
-	for i, name := range []string{"board 1e3", "board 2e2", "block 1e3", "block 2e2"} {
+	want := map[string]int{"board 1e3": 992, "board 2e2": 196, "block 1e3": 1000, "block 2e2": 0, "duct 1e3": 992, "duct 2e2": 196}
+	for i, name := range []string{"board 1e3", "board 2e2", "block 1e3", "block 2e2", "duct 1e3", "duct 2e2"} {
 		f := strings.Fields(lines[1+i])
 		require.Len(t, f, 9, lines[1+i]) // no target: "-" and "-"
 		assert.Equal(t, strings.Fields(name)[0], f[0])
@@ -76,7 +76,7 @@ func TestBenchSolvesSmallModels(t *testing.T) {
 
 	// Every part keeps within its limit, and all the heat the models put
 	// in (the sum of their powers) comes out at the ambient.
-	for name, in := range map[string]float64{"board-1e3": 13.7, "board-2e2": 13.7, "block-1e3": 20.5, "block-2e2": 20.5} {
+	for name, in := range map[string]float64{"board-1e3": 13.7, "board-2e2": 13.7, "block-1e3": 20.5, "block-2e2": 20.5, "duct-1e3": 120, "duct-2e2": 120} {
 		data, err := os.ReadFile(filepath.Join(kept, name+".json"))
 		require.NoError(t, err)
 		var r struct {
@@ -96,7 +96,7 @@ func TestBenchSolvesSmallModels(t *testing.T) {
 		assert.Equal(t, "ambient", r.Balance.Out[0].Node)
 		assert.InDelta(t, in, r.Balance.Out[0].Heat, 1e-6*in, name)
 	}
-	assert.Equal(t, 8, strings.Count(errOut.String(), " of 2: "), "two runs of each of four cases\n%s", errOut)
+	assert.Equal(t, 12, strings.Count(errOut.String(), " of 2: "), "two runs of each of six cases\n%s", errOut)
 }
 
 // A solve that keeps taking memory is stopped at --max-memory, and its
