@@ -80,7 +80,9 @@ The table gives, for every case: the shape, its cells, the unknowns of
 the solve, the median wall time (s) over --repeat runs, the largest peak
 memory (MB, 10^6 bytes), the Newton and linear iterations, the project's
 target on a 2-core machine (s / MB) and whether it is met, and below it
-the machine: CPU, logical CPUs, GOMAXPROCS, Go version. The targets:
+the machine: CPU, logical CPUs, GOMAXPROCS, Go version and, on Linux,
+the kernel's transparent huge page mode (with "never" a big solve's first
+writes to fresh memory take much longer). The targets:
   board 1e5: 0.6 s        board 1e6: 3.9 s, 1500 MB
   block 1e5: 4 s          block 1e6: 10 s, 1500 MB
 The solves inherit the environment, so GOMAXPROCS=2 heatgraph bench

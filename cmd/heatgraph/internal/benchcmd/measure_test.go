@@ -265,3 +265,23 @@ func TestInvalidOptions(t *testing.T) {
 		assert.ErrorContains(t, err, c.want)
 	}
 }
+
+// The kernel's huge page mode is the word in brackets (sysfs-kernel-mm-
+// transparent-hugepage, the Linux kernel's documentation), and the machine
+// line says it.
+func TestHugePageMode(t *testing.T) {
+	dir := t.TempDir()
+	for text, want := range map[string]string{
+		"always [madvise] never\n": "madvise",
+		"[always] madvise never\n": "always",
+		"always madvise [never]\n": "never",
+		"garbled\n":                "",
+	} {
+		p := filepath.Join(dir, "enabled")
+		require.NoError(t, os.WriteFile(p, []byte(text), 0o644))
+		assert.Equal(t, want, hugePageMode(p), text)
+	}
+	assert.Equal(t, "", hugePageMode(filepath.Join(dir, "missing")))
+	lines := Machine{CPU: "X", CPUs: 2, GOMAXPROCS: 2, HugePages: "never"}.lines(1)
+	assert.Contains(t, lines[0], "transparent huge pages never")
+}

@@ -84,6 +84,10 @@ type Machine struct {
 	GOMAXPROCS int
 	GoVersion  string
 	OS, Arch   string
+	// HugePages is the kernel's transparent huge page mode (always,
+	// madvise or never), "" when unknown: with never, a big solve's
+	// memory comes in 4 KiB pages and takes longer (see package bigmem).
+	HugePages string
 }
 
 // ThisMachine describes the machine the bench runs on. The solves are
@@ -91,7 +95,24 @@ type Machine struct {
 // included.
 func ThisMachine() Machine {
 	return Machine{CPU: cpuModel("/proc/cpuinfo"), CPUs: runtime.NumCPU(), GOMAXPROCS: runtime.GOMAXPROCS(0),
-		GoVersion: runtime.Version(), OS: runtime.GOOS, Arch: runtime.GOARCH}
+		GoVersion: runtime.Version(), OS: runtime.GOOS, Arch: runtime.GOARCH,
+		HugePages: hugePageMode("/sys/kernel/mm/transparent_hugepage/enabled")}
+}
+
+// hugePageMode reads the mode in brackets of the kernel's transparent huge
+// page setting ("always [madvise] never" gives madvise), "" when there is
+// none.
+func hugePageMode(path string) string {
+	data, err := os.ReadFile(path)
+	if err != nil {
+		return ""
+	}
+	_, rest, ok := strings.Cut(string(data), "[")
+	mode, _, ok2 := strings.Cut(rest, "]")
+	if !ok || !ok2 {
+		return ""
+	}
+	return mode
 }
 
 // cpuModel reads the first "model name" of a cpuinfo file, "" when there is
@@ -117,8 +138,12 @@ func (m Machine) lines(repeat int) []string {
 	if cpu == "" {
 		cpu = "unknown CPU"
 	}
+	machine := fmt.Sprintf("machine: %s, %d logical CPUs, GOMAXPROCS %d, %s %s/%s", cpu, m.CPUs, m.GOMAXPROCS, m.GoVersion, m.OS, m.Arch)
+	if m.HugePages != "" {
+		machine += ", transparent huge pages " + m.HugePages
+	}
 	return []string{
-		fmt.Sprintf("machine: %s, %d logical CPUs, GOMAXPROCS %d, %s %s/%s", cpu, m.CPUs, m.GOMAXPROCS, m.GoVersion, m.OS, m.Arch),
+		machine,
 		fmt.Sprintf("time: wall time of 'heatgraph solve MODEL -f json -o RESULT', model file to written results, median of %d run%s", repeat, plural(repeat)),
 		fmt.Sprintf("peak: largest peak resident set of the solve's process over the runs, MB = 10^6 bytes"),
 		"Newton: Newton iterations; linear: linear solver iterations (- when the report does not give them)",
