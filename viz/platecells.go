@@ -6,6 +6,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"io"
+	"math"
 	"strconv"
 	"strings"
 
@@ -69,6 +70,11 @@ func appendNum(b []byte, x float64, null string) []byte {
 	return strconv.AppendFloat(b, x, 'g', -1, 64)
 }
 
+// mm rounds a length in millimetres to 1e-9 mm, far below any cell, so
+// that the round-off of the arithmetic that found it does not show (0.3,
+// not 0.30000000000000004).
+func mm(v float64) float64 { return math.Round(v*1e9) / 1e9 }
+
 // csvField quotes a field as RFC 4180 asks when it holds a comma, a quote,
 // a line break or leading space.
 func csvField(s string) string {
@@ -92,13 +98,13 @@ func writeCellsCSV(bw *bufio.Writer, plates []network.PlateResult) error {
 		for i := 0; i < p.NX; i++ {
 			xs = strconv.AppendInt(xs, int64(i), 10)
 			xs = append(xs, 0) // stands for j, k
-			xs = appendNum(xs, (float64(i)+0.5)*dx, "")
+			xs = appendNum(xs, mm((float64(i)+0.5)*dx), "")
 			xo[i+1] = len(xs)
 		}
 		jk := make([]byte, 0, 80)
 		c := 0
 		for k := 0; k < p.NZ; k++ {
-			z := 1e3 * zCentre(p, k)
+			z := mm(1e3 * zCentre(p, k))
 			for j := 0; j < p.NY; j++ {
 				jk = append(jk[:0], ',')
 				jk = strconv.AppendInt(jk, int64(j), 10)
@@ -106,7 +112,7 @@ func writeCellsCSV(bw *bufio.Writer, plates []network.PlateResult) error {
 				jk = strconv.AppendInt(jk, int64(k), 10)
 				jk = append(jk, ',')
 				yz := len(jk)
-				jk = appendNum(jk, (float64(j)+0.5)*dy, "")
+				jk = appendNum(jk, mm((float64(j)+0.5)*dy), "")
 				jk = append(jk, ',')
 				jk = appendNum(jk, z, "")
 				for i := 0; i < p.NX; i++ {
@@ -147,9 +153,9 @@ func writeCellsJSON(bw *bufio.Writer, plates []network.PlateResult) error {
 		bw.WriteString(`{"plate":`)
 		bw.Write(id)
 		fmt.Fprintf(bw, `,"nx":%d,"ny":%d,"nz":%d,"dx_mm":`, p.NX, p.NY, p.NZ)
-		bw.Write(appendNum(b[:0], 1e3*p.Width/float64(p.NX), "null"))
+		bw.Write(appendNum(b[:0], mm(1e3*p.Width/float64(p.NX)), "null"))
 		bw.WriteString(`,"dy_mm":`)
-		bw.Write(appendNum(b[:0], 1e3*p.Length/float64(p.NY), "null"))
+		bw.Write(appendNum(b[:0], mm(1e3*p.Length/float64(p.NY)), "null"))
 		bw.WriteString(`,"z_edges_mm":[`)
 		for k := 0; k <= p.NZ; k++ {
 			if k > 0 {
@@ -160,7 +166,7 @@ func writeCellsJSON(bw *bufio.Writer, plates []network.PlateResult) error {
 			if k == p.NZ {
 				z = z1
 			}
-			bw.Write(appendNum(b[:0], 1e3*z, "null"))
+			bw.Write(appendNum(b[:0], mm(1e3*z), "null"))
 		}
 		bw.WriteString(`],"temperature_degC":[`)
 		for c, t := range p.T {

@@ -155,15 +155,17 @@ func TestPlateCellsReadBack(t *testing.T) {
 	p := testBoard(100, 80, 25, 20, 3)
 	q := testBoard(60, 30, 6, 3, 1)
 	q.ID = `odd, "quoted" id`
+	odd := testBoard(100, 80, 7, 3, 3) // cells of 100/7 and 80/3 mm
+	odd.ID = "odd"
 	sol, _ := plateSolution(t, p)
-	sol.Plates = append(sol.Plates, q)
+	sol.Plates = append(sol.Plates, q, odd)
 
 	var buf bytes.Buffer
 	require.NoError(t, WritePlateCells(&buf, sol, CellsCSV))
 	rows, err := csv.NewReader(&buf).ReadAll()
 	require.NoError(t, err)
 	assert.Equal(t, PlateCellsHeader, rows[0])
-	require.Len(t, rows, 1+len(p.T)+len(q.T))
+	require.Len(t, rows, 1+len(p.T)+len(q.T)+len(odd.T))
 	row := 1
 	for _, pl := range sol.Plates {
 		for c, want := range pl.T {
@@ -176,6 +178,13 @@ func TestPlateCellsReadBack(t *testing.T) {
 			z, _ := strconv.ParseFloat(r[6], 64)
 			assert.InDelta(t, 1e3*(float64(i)+0.5)*pl.Width/float64(pl.NX), x, 1e-9)
 			assert.InDelta(t, 1e3*zCentre(&pl, k), z, 1e-9)
+			for _, v := range r[4:7] {
+				// Positions are rounded to 1e-9 mm: no round-off of the
+				// arithmetic shows (0.3, not 0.30000000000000004).
+				if _, frac, ok := strings.Cut(v, "."); ok && len(frac) > 9 {
+					t.Fatalf("%s cell %d: position %s shows round-off", pl.ID, c, v)
+				}
+			}
 			got, err := strconv.ParseFloat(r[7], 64)
 			require.NoError(t, err)
 			if got != celsius(want) {
@@ -199,13 +208,13 @@ func TestPlateCellsReadBack(t *testing.T) {
 		Unwanted any       `json:"cells"`
 	}
 	require.NoError(t, json.Unmarshal(buf.Bytes(), &doc))
-	require.Len(t, doc, 2)
+	require.Len(t, doc, 3)
 	for n, pl := range sol.Plates {
 		d := doc[n]
 		assert.Equal(t, pl.ID, d.Plate)
 		assert.Equal(t, [3]int{pl.NX, pl.NY, pl.NZ}, [3]int{d.NX, d.NY, d.NZ})
-		assert.InDelta(t, 1e3*pl.Width/float64(pl.NX), d.DX, 1e-12)
-		assert.InDelta(t, 1e3*pl.Length/float64(pl.NY), d.DY, 1e-12)
+		assert.InDelta(t, 1e3*pl.Width/float64(pl.NX), d.DX, 1e-9)
+		assert.InDelta(t, 1e3*pl.Length/float64(pl.NY), d.DY, 1e-9)
 		require.Len(t, d.ZEdges, pl.NZ+1)
 		assert.InDelta(t, 1.6, d.ZEdges[pl.NZ], 1e-12)
 		require.Len(t, d.TDegC, len(pl.T))

@@ -90,8 +90,18 @@ func TestCellsCSV(t *testing.T) {
 		require.Greater(t, temp, 55.0, r)
 	}
 	assert.Equal(t, map[string]int{"board": 110 * 80, "spreader": 50 * 40}, perPlate)
-	// The first row is the board's corner cell, its centre half a cell in.
+	// The first row is the board's corner cell, its centre half a cell in;
+	// positions show no round-off of the arithmetic (the cell at i = 3 is
+	// at 3.5 mm, the board's cells are 1 mm).
 	assert.Equal(t, []string{"board", "0", "0", "0", "0.5", "0.5", "0.8"}, rows[1][:7])
+	assert.Equal(t, []string{"board", "3", "0", "0", "3.5", "0.5", "0.8"}, rows[4][:7])
+	for _, r := range rows[1:] {
+		for _, v := range r[4:7] {
+			if _, frac, ok := strings.Cut(v, "."); ok && len(frac) > 9 {
+				t.Fatalf("position %s shows round-off: %v", v, r)
+			}
+		}
+	}
 }
 
 // plateCells is one plate of the JSON cells file.
