@@ -72,7 +72,8 @@ type AMG struct {
 	MaxCoarse int
 	// MaxLevels bounds the levels, default DefaultAMGMaxLevels.
 	MaxLevels int
-	// ReuseAggregates keeps the aggregation of the first Setup.
+	// ReuseAggregates keeps the aggregation of the first Setup, until
+	// Renew: a renewed hierarchy aggregates again.
 	ReuseAggregates bool
 	// Lag keeps the coarse levels across Setups; see AMG.
 	Lag bool
@@ -162,6 +163,11 @@ func (m *AMG) setup(a *op, sign float64) error {
 			return nil
 		}
 	}
+	// A hierarchy renewed because it had become too slow is rebuilt from
+	// its aggregates up: the strength of the connections that chose them
+	// has changed too (the matrix of a time step's first, tiny step is
+	// nearly diagonal, and aggregates kept from it barely coarsen).
+	renewed := m.renew
 	m.renew, m.fresh, m.sign = false, true, sign
 	coarseTheta := m.CoarseTheta
 	if coarseTheta <= 0 {
@@ -177,7 +183,7 @@ func (m *AMG) setup(a *op, sign float64) error {
 	if maxLevels <= 0 {
 		maxLevels = DefaultAMGMaxLevels
 	}
-	reuse := m.ReuseAggregates && len(m.levels) > 0 && m.levels[0].a.N == a.N &&
+	reuse := m.ReuseAggregates && !renewed && len(m.levels) > 0 && m.levels[0].a.N == a.N &&
 		len(m.levels[0].a.Col) == len(a.Col)
 	old := m.levels
 	if !reuse {

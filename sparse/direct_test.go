@@ -204,14 +204,33 @@ func TestCholeskyNotDefinite(t *testing.T) {
 	rng := rand.New(rand.NewPCG(15, 16))
 	a := grid2D(6, 6, rng)
 	for k := range a.Val {
-		a.Val[k] = -a.Val[k] // positive definite: the wrong sign
+		a.Val[k] = -a.Val[k] // positive definite: the wrong sign for Cholesky
 	}
 	c := NewCholesky()
 	if err := c.Factorize(a); !errors.Is(err, ErrNotDefinite) {
 		t.Errorf("error %v, want ErrNotDefinite", err)
 	}
-	// Auto falls back to LU, which solves it.
+	// Auto factorises a positive definite matrix (a time step's) by the
+	// supernodal Cholesky of A itself.
 	s := Auto(a)
+	if err := s.Factorize(a); err != nil {
+		t.Fatal(err)
+	}
+	if s.Kind() != "cholesky" {
+		t.Errorf("positive definite: Auto chose %q, want cholesky", s.Kind())
+	}
+	// A symmetric indefinite matrix with a negative diagonal (couplings
+	// three times too strong): Auto falls back to LU, which solves it.
+	for i := 0; i < a.N; i++ {
+		for k := a.RowPtr[i]; k < a.RowPtr[i+1]; k++ {
+			if a.Col[k] == i {
+				a.Val[k] = -a.Val[k]
+			} else {
+				a.Val[k] *= 3
+			}
+		}
+	}
+	s = Auto(a)
 	if err := s.Factorize(a); err != nil {
 		t.Fatal(err)
 	}

@@ -27,6 +27,8 @@ type iterBase struct {
 	// WarmStart makes Solve start from the x it is given.
 	WarmStart bool
 
+	// sign is CG's σ, the sign for which σ·A is positive definite.
+	sign   float64
 	a      Matrix // pattern shared with the caller's matrix, values copied
 	op     *op    // a with 4-byte column indices, for the products
 	narrow narrowing
@@ -135,18 +137,36 @@ func (s *iterBase) fail(name string, it int, why string) error {
 }
 
 // CG is the preconditioned conjugate gradient method (Hestenes & Stiefel
-// 1952; Saad 2003, ch. 9) for symmetric negative definite A: it
-// iterates on −A·x = −b, whose matrix is positive definite, so the
-// preconditioner is built for −A. Its default preconditioner is IC(0)
-// (ILU0 on a symmetric matrix). The residual it checks is the true one,
-// recomputed when the recurrence claims convergence.
+// 1952; Saad 2003, ch. 9) for symmetric definite A of either sign: a
+// Jacobian of heat flows is negative definite, the matrix of a time step
+// (capacity over the step less the Jacobian) positive definite. It
+// iterates on σ·A·x = σ·b with σ the sign of A's diagonal (−1 unless
+// every diagonal entry is positive), whose matrix is then positive
+// definite, and the preconditioner is built for σ·A. Its default
+// preconditioner is IC(0) (ILU0 on a symmetric matrix). The residual it
+// checks is the true one, recomputed when the recurrence claims
+// convergence.
 type CG struct{ iterBase }
 
 // NewCG returns a CG solver with the IC(0) preconditioner and defaults.
 func NewCG() *CG { return &CG{} }
 
-// Factorize copies a's values and builds the preconditioner for −A.
-func (s *CG) Factorize(a *Matrix) error { return s.factorize(a, -1) }
+// Factorize copies a's values and builds the preconditioner for σ·A.
+func (s *CG) Factorize(a *Matrix) error {
+	s.sign = definiteSign(a)
+	return s.factorize(a, s.sign)
+}
+
+// definiteSign returns +1 when every diagonal entry of a is positive (the
+// sign of a positive definite matrix's diagonal), else −1.
+func definiteSign(a *Matrix) float64 {
+	for i := 0; i < a.N; i++ {
+		if !(a.At(i, i) > 0) {
+			return -1
+		}
+	}
+	return 1
+}
 
 // Solve iterates from zero (or from x with WarmStart) until
 // ‖b − A·x‖₂ ≤ Tol·‖b‖₂; failing that within MaxIter iterations, it
@@ -166,7 +186,7 @@ func (s *CG) Solve(x, b []float64) error {
 	if err := checkLen(s.a.N, x, b); err != nil {
 		return err
 	}
-	return s.lagged(-1, func(tol float64, maxIter int) (float64, error) { return s.cg(x, b, tol, maxIter) })
+	return s.lagged(s.sign, func(tol float64, maxIter int) (float64, error) { return s.cg(x, b, tol, maxIter) })
 }
 
 // lagged runs the iteration run (returning the relative residual it
@@ -224,8 +244,8 @@ func (s *iterBase) judge(l lagger, start float64) {
 	}
 }
 
-// cg is the CG iteration on −A·x = −b, at most maxIter steps. It returns
-// the relative residual it started from.
+// cg is the CG iteration on σ·A·x = σ·b, at most maxIter steps. It
+// returns the relative residual it started from.
 func (s *CG) cg(x, b []float64, tol float64, maxIter int) (float64, error) {
 	n := s.a.N
 	a := s.op
@@ -242,10 +262,11 @@ func (s *CG) cg(x, b []float64, tol float64, maxIter int) (float64, error) {
 	if s.relres <= tol {
 		return start, nil
 	}
-	// Work on M = −A, c = −b: the residual c − M·x is −r.
+	// Work on M = σ·A, c = σ·b: the residual c − M·x is σ·r.
+	sign := s.sign
 	inBlocks(n, func(_, lo, hi int) {
 		for i := lo; i < hi; i++ {
-			r[i] = -r[i]
+			r[i] *= sign
 		}
 	})
 	s.Precond.Apply(z, r)
@@ -257,14 +278,18 @@ func (s *CG) cg(x, b []float64, tol float64, maxIter int) (float64, error) {
 			mulRows(a.RowPtr, a.Col, a.Val, q, p, lo, hi)
 			t := 0.0
 			for i := lo; i < hi; i++ {
-				q[i] = -q[i]
+				q[i] *= sign
 				t += p[i] * q[i]
 			}
 			return t
 		})
 		if !(pq > 0) {
 			s.iters = it
-			return start, fmt.Errorf("%w: −A is not positive definite along a search direction (iteration %d)", ErrNotDefinite, it)
+			m := "−A"
+			if sign > 0 {
+				m = "A"
+			}
+			return start, fmt.Errorf("%w: %s is not positive definite along a search direction (iteration %d)", ErrNotDefinite, m, it)
 		}
 		alpha := rz / pq
 		rr := sumBlocks(n, func(lo, hi int) float64 {
@@ -283,7 +308,7 @@ func (s *CG) cg(x, b []float64, tol float64, maxIter int) (float64, error) {
 			// recurrence has drifted.
 			a.MulVec(r, x)
 			for i := range r {
-				r[i] -= b[i] // c − M·x = −b + A·x
+				r[i] = sign * (b[i] - r[i]) // c − M·x = σ·(b − A·x)
 			}
 			s.relres = norm2(r) / bn
 			if s.relres <= tol {

@@ -140,3 +140,49 @@ func TestIterativeSingularPreconditioner(t *testing.T) {
 		}
 	}
 }
+
+// CG solves a positive definite system as well as a negative definite one
+// (the matrix of a time step, capacity over the step less the Jacobian, is
+// positive definite): with multigrid or IC(0), to the tolerance, in the
+// same iterations as for −A, and Auto keeps CG for it instead of falling
+// back to BiCGStab.
+func TestCGEitherSign(t *testing.T) {
+	rng := rand.New(rand.NewPCG(51, 52))
+	neg := grid2D(150, 150, rng) // a conduction Jacobian: negative definite
+	pos := &Matrix{N: neg.N, RowPtr: neg.RowPtr, Col: neg.Col, Val: make([]float64, len(neg.Val))}
+	for k, v := range neg.Val {
+		pos.Val[k] = -v
+	}
+	b := randVec(neg.N, rng)
+	for _, pre := range []func() Preconditioner{func() Preconditioner { return &AMG{} }, func() Preconditioner { return &ILU0{} }} {
+		iters := map[string]int{}
+		for name, a := range map[string]*Matrix{"negative": neg, "positive": pos} {
+			s := &CG{iterBase{Precond: pre()}}
+			if err := s.Factorize(a); err != nil {
+				t.Fatal(err)
+			}
+			x := make([]float64, a.N)
+			if err := s.Solve(x, b); err != nil {
+				t.Fatalf("%s definite: %v", name, err)
+			}
+			if r := relResidual(a, x, b); r > DefaultTol {
+				t.Errorf("%s definite: residual %.3g", name, r)
+			}
+			iters[name], _ = s.Stats()
+		}
+		if iters["negative"] != iters["positive"] {
+			t.Errorf("%T: %d iterations for A, %d for −A", pre(), iters["positive"], iters["negative"])
+		}
+	}
+	auto := Auto(pos)
+	if err := auto.Factorize(pos); err != nil {
+		t.Fatal(err)
+	}
+	x := make([]float64, pos.N)
+	if err := auto.Solve(x, b); err != nil {
+		t.Fatal(err)
+	}
+	if k := auto.Kind(); k != "cg" && k != "cholesky" {
+		t.Errorf("Auto solved a positive definite system with %s", k)
+	}
+}

@@ -6,10 +6,13 @@ import (
 )
 
 // Supernodal is a supernodal left-looking Cholesky factorisation for
-// symmetric negative definite A, the faster choice when the factor is
-// large. Like Cholesky it factorises −P·A·Pᵀ, here as L·Lᵀ, and Solve
-// returns the solution of A·x = b itself; the pivot tests are those of
-// Cholesky (on the pivot before its square root).
+// symmetric definite A, the faster choice when the factor is large. Like
+// Cholesky it factorises −P·A·Pᵀ, here as L·Lᵀ, for a negative definite A
+// (a Jacobian of heat flows); when every diagonal entry of A is positive
+// (the matrix of a time step, capacity over the step less the Jacobian) it
+// factorises P·A·Pᵀ instead. Solve returns the solution of A·x = b itself;
+// the pivot tests are those of Cholesky (on the pivot before its square
+// root).
 //
 // Analyse orders by AMD, post-orders the elimination tree so that every
 // supernode is a run of consecutive columns, and groups into a supernode
@@ -39,6 +42,7 @@ type Supernodal struct {
 	rel                      []int
 	work, tmp                []float64
 	scales                   []float64
+	sign                     float64 // σ: the factor is of σ·P·A·Pᵀ
 	ok                       bool
 }
 
@@ -154,6 +158,8 @@ func (f *Supernodal) Factorize(a *Matrix) error {
 	}
 	tol := pivotTol(f.PivotTol)
 	f.scales = rowScales(a, f.scales)
+	f.sign = definiteSign(a)
+	sign := f.sign
 	ns := len(f.super) - 1
 	clear(f.val)
 	for J := range f.head {
@@ -168,15 +174,15 @@ func (f *Supernodal) Factorize(a *Matrix) error {
 		for i, r := range rowsJ {
 			f.relpos[r] = i
 		}
-		// Assemble −A.
+		// Assemble σ·A (−A for a Jacobian).
 		for j := fc; j <= l; j++ {
 			c := j - fc
 			if p := s.diag[j]; p >= 0 {
-				blk[c+nr*c] = -a.Val[p]
+				blk[c+nr*c] = sign * a.Val[p]
 			}
 			for q := f.acolPtr[j]; q < f.acolPtr[j+1]; q++ {
 				if p := f.acolVal[q]; p >= 0 {
-					blk[f.relpos[f.acolRow[q]]+nr*c] = -a.Val[p]
+					blk[f.relpos[f.acolRow[q]]+nr*c] = sign * a.Val[p]
 				}
 			}
 		}
@@ -342,7 +348,7 @@ func (f *Supernodal) Solve(x, b []float64) error {
 	}
 	w := f.work
 	for k := 0; k < n; k++ {
-		w[k] = -b[s.Perm[k]]
+		w[k] = f.sign * b[s.Perm[k]] // σ·A·x = σ·b
 	}
 	ns := len(f.super) - 1
 	for J := 0; J < ns; J++ {

@@ -75,11 +75,35 @@ func TestSupernodalSingularAndIndefinite(t *testing.T) {
 	if err := f.Factorize(a); !errors.Is(err, ErrSingular) {
 		t.Errorf("zero row: %v, want ErrSingular", err)
 	}
+	// Symmetric with a negative diagonal but couplings three times too
+	// strong: indefinite.
 	b := grid2D(10, 10, rng)
-	for k := range b.Val {
-		b.Val[k] = -b.Val[k]
+	for i := 0; i < b.N; i++ {
+		for k := b.RowPtr[i]; k < b.RowPtr[i+1]; k++ {
+			if b.Col[k] != i {
+				b.Val[k] *= 3
+			}
+		}
 	}
 	if err := NewSupernodal().Factorize(b); !errors.Is(err, ErrNotDefinite) {
-		t.Errorf("positive definite: %v, want ErrNotDefinite", err)
+		t.Errorf("indefinite: %v, want ErrNotDefinite", err)
+	}
+	// Positive definite (every diagonal entry positive): factorised as A,
+	// and solved.
+	c := grid2D(10, 10, rng)
+	for k := range c.Val {
+		c.Val[k] = -c.Val[k]
+	}
+	p := NewSupernodal()
+	if err := p.Factorize(c); err != nil {
+		t.Fatalf("positive definite: %v", err)
+	}
+	rhs := randVec(c.N, rng)
+	x := make([]float64, c.N)
+	if err := p.Solve(x, rhs); err != nil {
+		t.Fatal(err)
+	}
+	if e := relErr(x, denseSolve(t, c, rhs, false)); e > 1e-10 {
+		t.Errorf("positive definite: error %.3g against gonum dense LU", e)
 	}
 }
