@@ -30,7 +30,8 @@
 //   - Cholesky: up-looking LDLᵀ of −PAPᵀ (Davis 2006, ch. 4), for
 //     symmetric values. D > 0 for a dissipative network; the sign is handled
 //     inside, so callers pass J and get the solution of J·x = b.
-//   - Supernodal: the same factorisation (as L·Lᵀ of −PAPᵀ) by
+//   - Supernodal: the same factorisation (as L·Lᵀ of −PAPᵀ, or of PAPᵀ
+//     when every diagonal entry is positive, as in a time step's matrix) by
 //     fundamental supernodes on the post-ordered elimination tree,
 //     left-looking with dense blocks (Ng & Peyton, SIAM J. Sci. Comput. 14,
 //     1993); two to three times faster on large factors.
@@ -39,7 +40,8 @@
 //     check and a fallback to PivotLU.
 //   - PivotLU: left-looking LU with threshold partial pivoting (Gilbert &
 //     Peierls, SIAM J. Sci. Stat. Comput. 9, 1988; Davis 2006, ch. 6).
-//   - CG (on −A) and BiCGStab with the preconditioners Jacobi, ILU0 (IC(0)
+//   - CG (on σ·A, σ the sign of the diagonal: −A for a Jacobian, A for a
+//     time step's matrix) and BiCGStab with the preconditioners Jacobi, ILU0 (IC(0)
 //     on symmetric values) and AMG, smoothed-aggregation algebraic
 //     multigrid (Vaněk, Mandel & Brezina, Computing 56, 1996), after
 //     Y. Saad, Iterative Methods for Sparse Linear Systems, 2nd ed., SIAM
