@@ -2,4 +2,4 @@
 
 package bigmem
 
-func advise[T any](s []T) {}
+func advise[T any](s []T, n int) {}

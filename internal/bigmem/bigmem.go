@@ -7,7 +7,8 @@
 // cost 10 µs, so the faults alone took seconds (measured with heatgraph
 // bench: 200,000 faults and 1.9 s of system time in a 5 s solve). Make asks
 // the kernel for transparent huge pages (2 MiB) for the heap around a large
-// slice before anything writes to it, which makes 512 faults into one. The
+// slice before anything writes to it, which makes 512 faults into one, and
+// has the kernel fault in the pages the caller will write in one call. The
 // advice is only advice: where the kernel has no huge pages to give, or on
 // another system, Make is the built-in make.
 package bigmem
@@ -27,9 +28,9 @@ func Make[T any](n int) []T {
 }
 
 // MakeCap returns make([]T, n, c), with huge pages advised for a large
-// capacity.
+// capacity and the first n elements' pages faulted in at once.
 func MakeCap[T any](n, c int) []T {
 	s := make([]T, n, c)
-	advise(s[:c])
+	advise(s[:c], n)
 	return s
 }
