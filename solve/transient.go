@@ -6,6 +6,7 @@ import (
 	"math"
 	"sort"
 
+	"github.com/heatgraph/heatgraph/internal/bigmem"
 	"github.com/heatgraph/heatgraph/sparse"
 )
 
@@ -292,14 +293,14 @@ func newIntegrator(p Transient, x0 []float64, s TransientSettings) *integrator {
 		s.NewtonTol = DefaultNewtonTol
 	}
 	it := &integrator{p: p, s: s, n: n, kinds: p.Kinds()}
-	vec := func() []float64 { return make([]float64, n) }
+	vec := func() []float64 { return bigmem.Make[float64](n) }
 	it.x = append(vec()[:0], x0...)
 	it.xg, it.x1, it.xs = vec(), vec(), vec()
 	it.e0, it.eg, it.ek, it.e = vec(), vec(), vec(), vec()
 	it.f0, it.fg, it.f1, it.f = vec(), vec(), vec(), vec()
 	it.rhs, it.dx, it.d, it.est = vec(), vec(), vec(), vec()
-	it.kindOf = make([]int, n)
-	it.tol = make([]Tolerance, n)
+	it.kindOf = bigmem.Make[int](n)
+	it.tol = bigmem.Make[Tolerance](n)
 	for i := range it.kindOf {
 		k := p.KindOf(i)
 		it.kindOf[i] = k
@@ -311,8 +312,9 @@ func newIntegrator(p Transient, x0 []float64, s TransientSettings) *integrator {
 	}
 	it.alg = make([]bool, n)
 	it.jac = p.Pattern()
-	it.m = it.jac.Clone()
-	it.a = it.jac.Clone()
+	// The capacities and the stage matrix share the Jacobian's pattern.
+	it.m = samePattern(it.jac)
+	it.a = samePattern(it.jac)
 	it.lin = s.Linear
 	if it.lin == nil {
 		it.lin = Auto(n)
