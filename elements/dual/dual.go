@@ -79,6 +79,8 @@ func Pow(a Num, p float64) Num {
 		v = a.V * math.Sqrt(a.V)
 	case 0.25: // laminar natural convection: Ra^¼
 		v = math.Sqrt(math.Sqrt(a.V))
+	case 1.0 / 3: // turbulent natural convection: Ra^⅓
+		v = math.Cbrt(a.V)
 	default:
 		v = math.Pow(a.V, p)
 	}

@@ -28,6 +28,7 @@ func TestDerivativesMatchFiniteDifferences(t *testing.T) {
 		{"pow 1.5", func(a Num) Num { return Pow(a, 1.5) }, 300.0},
 		{"pow 0.25", func(a Num) Num { return Pow(a, 0.25) }, 2e5},
 		{"pow 1/6", func(a Num) Num { return Pow(a, 1.0/6) }, 2e5},
+		{"pow 1/3", func(a Num) Num { return Pow(a, 1.0/3) }, 2e7},
 		{"pown", func(a Num) Num { return PowN(a, a.Scale(0.5)) }, 1.3},
 		{"exp", Exp, -0.7},
 		{"log", Log, 5.0},
@@ -57,7 +58,7 @@ func TestDerivativesMatchFiniteDifferences(t *testing.T) {
 // place (math.Pow is not correctly rounded either: 2.5e7^1.5 is exactly
 // 1.25e11, which the root gives and math.Pow misses by one unit).
 func TestPowRootsAreMathPow(t *testing.T) {
-	for _, p := range []float64{0.5, 1.5, 0.25} {
+	for _, p := range []float64{0.5, 1.5, 0.25, 1.0 / 3} {
 		for _, x := range []float64{1e-3, 0.7, 293.15, 2.5e7} {
 			got, want := Pow(C(x), p).V, math.Pow(x, p)
 			if math.Abs(got-want) > 2e-15*want {
