@@ -11,6 +11,13 @@
 // has the kernel fault in the pages the caller will write in one call. The
 // advice is only advice: where the kernel has no huge pages to give, or on
 // another system, Make is the built-in make.
+//
+// The cost is resident memory in long-lived processes: once the runtime
+// returns part of an advised arena to the kernel, the kernel may fill a
+// huge page around what is still in use again (khugepaged), so a process
+// that solves many large models one after the other can keep more memory
+// resident than it uses. A solve from the command line, which exits when
+// done, does not see it.
 package bigmem
 
 // Threshold is the size in bytes from which Make advises huge pages. The
