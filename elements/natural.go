@@ -144,48 +144,40 @@ func (n *Natural) evalAt(s *State, tsv, tav float64, seed int) naturalState {
 	case 1:
 		ta.D = 1
 	}
-	film := ts.Add(ta).Scale(0.5)
-	p := air.At(film, s.Env.Pressure)
-	dT := ts.Sub(ta)
 	var ns naturalState
-	ns.props = p
 	ns.eta = dual.C(1)
-	switch n.Orientation {
-	case Vertical:
-		ns.ra = gravityRa(s, p, dT, n.Length)
-		ns.nu = convection.ChurchillChu(ns.ra, p.Pr)
-		ns.h = ns.nu.Mul(p.K).Scale(n.scale() / n.Length)
+	if n.Orientation != FinArray {
+		ns.props, ns.ra, ns.nu, ns.h = n.surface(s, ts, ta)
 		ns.hA = ns.h.Scale(n.Area)
-		ns.correlation = "Churchill-Chu (1975), vertical plate"
-		ns.ranges = []rangeCheck{{convection.ChurchillChuRa, ns.ra.V}}
-	case FacingUp, FacingDown:
-		ns.ra = gravityRa(s, p, dT, n.Length)
-		if risesAway(n.Orientation, dT.V) {
-			ns.nu = convection.HorizontalUp(ns.ra)
+		switch {
+		case n.Orientation == Vertical:
+			ns.correlation = "Churchill-Chu (1975), vertical plate"
+			ns.ranges = []rangeCheck{{convection.ChurchillChuRa, ns.ra.V}}
+		case risesAway(n.Orientation, ts.V-ta.V):
 			ns.correlation = "Lloyd-Moran (1974), buoyant flow leaves the face"
-			ns.ranges = []rangeCheck{{convection.HorizontalUpRa, ns.ra.V}, {convection.HorizontalPr, p.Pr.V}}
-		} else {
-			ns.nu = convection.HorizontalDown(ns.ra)
+			ns.ranges = []rangeCheck{{convection.HorizontalUpRa, ns.ra.V}, {convection.HorizontalPr, ns.props.Pr.V}}
+		default:
 			ns.correlation = "Incropera et al. eq. 9.32, buoyant flow trapped under the face"
-			ns.ranges = []rangeCheck{{convection.HorizontalDownRa, ns.ra.V}, {convection.HorizontalPr, p.Pr.V}}
+			ns.ranges = []rangeCheck{{convection.HorizontalDownRa, ns.ra.V}, {convection.HorizontalPr, ns.props.Pr.V}}
 		}
-		ns.h = ns.nu.Mul(p.K).Scale(n.scale() / n.Length)
-		ns.hA = ns.h.Scale(n.Area)
-	case FinArray:
-		f := n.Fins
-		raS := gravityRa(s, p, dT, f.Spacing)
-		el := raS.Scale(f.Spacing / n.Length)
-		ns.ra = el
-		ns.nu = convection.BarCohenSymmetric(el)
-		ns.h = ns.nu.Mul(p.K).Scale(n.scale() / f.Spacing)
-		ns.eta = convection.FinEfficiency(ns.h, f.Conductivity, f.Thickness, f.Height)
-		finArea := 2 * float64(f.Count) * f.Height * n.Length
-		baseArea := float64(f.Count-1) * f.Spacing * n.Length
-		ns.hA = ns.h.Mul(ns.eta.Scale(finArea).AddC(baseArea))
-		ns.correlation = "Bar-Cohen-Rohsenow (1984), isothermal parallel-plate channels"
-		raL := raS.V * (n.Length / f.Spacing) * (n.Length / f.Spacing) * (n.Length / f.Spacing)
-		ns.ranges = []rangeCheck{{convection.ChannelRaL, raL}}
+		return ns
 	}
+	p := air.At(ts.Add(ta).Scale(0.5), s.Env.Pressure)
+	dT := ts.Sub(ta)
+	ns.props = p
+	f := n.Fins
+	raS := gravityRa(s, p, dT, f.Spacing)
+	el := raS.Scale(f.Spacing / n.Length)
+	ns.ra = el
+	ns.nu = convection.BarCohenSymmetric(el)
+	ns.h = ns.nu.Mul(p.K).Scale(n.scale() / f.Spacing)
+	ns.eta = convection.FinEfficiency(ns.h, f.Conductivity, f.Thickness, f.Height)
+	finArea := 2 * float64(f.Count) * f.Height * n.Length
+	baseArea := float64(f.Count-1) * f.Spacing * n.Length
+	ns.hA = ns.h.Mul(ns.eta.Scale(finArea).AddC(baseArea))
+	ns.correlation = "Bar-Cohen-Rohsenow (1984), isothermal parallel-plate channels"
+	raL := raS.V * (n.Length / f.Spacing) * (n.Length / f.Spacing) * (n.Length / f.Spacing)
+	ns.ranges = []rangeCheck{{convection.ChannelRaL, raL}}
 	return ns
 }
 
@@ -194,15 +186,14 @@ func (n *Natural) evalAt(s *State, tsv, tav float64, seed int) naturalState {
 // a cool face down) rather than being trapped against it.
 func risesAway(o Orientation, dT float64) bool { return (o == FacingUp) == (dT >= 0) }
 
-// surfaceH returns h of a plain surface (Vertical, FacingUp, FacingDown)
-// at surface and air temperatures ts and ta, with their dual parts: eval's
-// coefficient without its report, for the many cells of a meshed face
-// (it allocates nothing).
-func (n *Natural) surfaceH(s *State, ts, ta dual.Num) dual.Num {
-	p := air.At(ts.Add(ta).Scale(0.5), s.Env.Pressure)
+// surface returns the air's properties at the film temperature, Ra, Nu
+// and h of a plain surface (Vertical, FacingUp, FacingDown) at surface and
+// air temperatures ts and ta, with their dual parts. It allocates nothing:
+// a meshed face evaluates it at every cell (surfaceH).
+func (n *Natural) surface(s *State, ts, ta dual.Num) (p air.Props, ra, nu, h dual.Num) {
+	p = air.At(ts.Add(ta).Scale(0.5), s.Env.Pressure)
 	dT := ts.Sub(ta)
-	ra := gravityRa(s, p, dT, n.Length)
-	var nu dual.Num
+	ra = gravityRa(s, p, dT, n.Length)
 	switch {
 	case n.Orientation == Vertical:
 		nu = convection.ChurchillChu(ra, p.Pr)
@@ -211,7 +202,13 @@ func (n *Natural) surfaceH(s *State, ts, ta dual.Num) dual.Num {
 	default:
 		nu = convection.HorizontalDown(ra)
 	}
-	return nu.Mul(p.K).Scale(n.scale() / n.Length)
+	return p, ra, nu, nu.Mul(p.K).Scale(n.scale() / n.Length)
+}
+
+// surfaceH returns h of a plain surface at ts and ta (see surface).
+func (n *Natural) surfaceH(s *State, ts, ta dual.Num) dual.Num {
+	_, _, _, h := n.surface(s, ts, ta)
+	return h
 }
 
 // gravityRa returns the Rayleigh number g·β·|ΔT|·L³/(ν·α) under the

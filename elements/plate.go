@@ -475,7 +475,9 @@ func (p *Plate) placeJoin(jn PlateJoin) (plateJoin, error) {
 		if math.IsNaN(v.v) || math.IsInf(v.v, 0) || v.v < 0 {
 			return plateJoin{}, fmt.Errorf("%s must be zero or a positive number, got %g", v.name, v.v)
 		}
-		if v.v > 0 && v.name != "length" {
+	}
+	for _, v := range []float64{jn.PerArea, jn.Total, jn.Emissivity} {
+		if v > 0 {
 			set++
 		}
 	}
@@ -765,8 +767,8 @@ func (p *Plate) naturalReport(s *State, i int) ([]Detail, []string) {
 	}
 	// The half-cell in series, as for radiation (radiationWarning), with
 	// h at the hottest cell.
-	if worst := p.centreFraction(i, pj.natural.evalAt(s, hi, tn, -1).h.V); worst > 0.05 {
-		w = append(w, fmt.Sprintf("join %s: natural convection leaves from the cell centres; the conduction between a centre and the face is %.2g of the convection's own resistance and is left out, so the heat is overestimated by up to about that fraction; use thinner cells at that face", name, worst))
+	if m := p.centreWarning(i, "natural convection", pj.natural.surfaceH(s, dual.C(hi), dual.C(tn)).V); m != "" {
+		w = append(w, m)
 	}
 	return d, w
 }
@@ -782,12 +784,20 @@ func (p *Plate) radiationWarning(i int, hottest float64) string {
 		return ""
 	}
 	hr := 4 * jn.Emissivity * StefanBoltzmann * hottest * hottest * hottest
-	worst := p.centreFraction(i, hr)
+	return p.centreWarning(i, "radiation", hr)
+}
+
+// centreWarning warns when join i, which acts at the cell centres with a
+// coefficient h, W/(m² K), leaves out more than 5 % of its own resistance
+// in the half cells between centres and face (centreFraction); what names
+// the join's kind.
+func (p *Plate) centreWarning(i int, what string, h float64) string {
+	worst := p.centreFraction(i, h)
 	if worst <= 0.05 {
 		return ""
 	}
-	return fmt.Sprintf("join %s: radiation leaves from the cell centres; the conduction between a centre and the face is %.2g of the radiation's own resistance and is left out, so the heat radiated is overestimated by up to about that fraction; use thinner cells at that face",
-		p.joinName(i), worst)
+	return fmt.Sprintf("join %s: %s leaves from the cell centres; the conduction between a centre and the face is %.2g of the %s's own resistance and is left out, so the heat is overestimated by up to about that fraction; use thinner cells at that face",
+		p.joinName(i), what, worst, what)
 }
 
 // Accuracy returns the accuracy of the natural-convection correlations on

@@ -27,7 +27,8 @@ type iterBase struct {
 	// WarmStart makes Solve start from the x it is given.
 	WarmStart bool
 
-	// sign is CG's σ, the sign for which σ·A is positive definite.
+	// sign is the sign the preconditioner is built for, σ·A: CG's σ, for
+	// which σ·A is positive definite; +1 for BiCGStab.
 	sign   float64
 	a      Matrix // pattern shared with the caller's matrix, values copied
 	op     *op    // a with 4-byte column indices, for the products
@@ -77,20 +78,21 @@ func (s *iterBase) factorize(a *Matrix, sign float64) error {
 	if s.Precond == nil {
 		s.Precond = &ILU0{}
 	}
-	if err := s.setupPrecond(sign); err != nil {
+	s.sign = sign
+	if err := s.setupPrecond(); err != nil {
 		return err
 	}
 	s.ok = true
 	return nil
 }
 
-// setupPrecond sets the preconditioner up for sign·A; multigrid takes
+// setupPrecond sets the preconditioner up for s.sign·A; multigrid takes
 // the matrix with the solver's own 4-byte column indices.
-func (s *iterBase) setupPrecond(sign float64) error {
+func (s *iterBase) setupPrecond() error {
 	if m, ok := s.Precond.(*AMG); ok {
-		return m.setup(s.op, sign)
+		return m.setup(s.op, s.sign)
 	}
-	return s.Precond.Setup(&s.a, sign)
+	return s.Precond.Setup(&s.a, s.sign)
 }
 
 func (s *iterBase) vectors(k int) [][]float64 {
@@ -153,8 +155,7 @@ func NewCG() *CG { return &CG{} }
 
 // Factorize copies a's values and builds the preconditioner for σ·A.
 func (s *CG) Factorize(a *Matrix) error {
-	s.sign = definiteSign(a)
-	return s.factorize(a, s.sign)
+	return s.factorize(a, definiteSign(a))
 }
 
 // definiteSign returns +1 when every diagonal entry of a is positive (the
@@ -186,14 +187,14 @@ func (s *CG) Solve(x, b []float64) error {
 	if err := checkLen(s.a.N, x, b); err != nil {
 		return err
 	}
-	return s.lagged(s.sign, func(tol float64, maxIter int) (float64, error) { return s.cg(x, b, tol, maxIter) })
+	return s.lagged(func(tol float64, maxIter int) (float64, error) { return s.cg(x, b, tol, maxIter) })
 }
 
 // lagged runs the iteration run (returning the relative residual it
 // started from) to the solver's tolerance; with a lagging multigrid
-// preconditioner (AMG.Lag) for sign·A it judges the hierarchy as CG.Solve
+// preconditioner (AMG.Lag) for s.sign·A it judges the hierarchy as CG.Solve
 // describes.
-func (s *iterBase) lagged(sign float64, run func(tol float64, maxIter int) (float64, error)) error {
+func (s *iterBase) lagged(run func(tol float64, maxIter int) (float64, error)) error {
 	tol, maxIter := s.limits()
 	l, lagging := s.Precond.(lagger)
 	limit := maxIter
@@ -206,7 +207,7 @@ func (s *iterBase) lagged(sign float64, run func(tol float64, maxIter int) (floa
 	iters := s.iters
 	if lagging && errors.Is(err, ErrNotConverged) && !l.Fresh() && limit < maxIter {
 		l.Renew()
-		if err = s.setupPrecond(sign); err != nil {
+		if err = s.setupPrecond(); err != nil {
 			return err
 		}
 		warm := s.WarmStart
@@ -356,7 +357,7 @@ func (s *BiCGStab) Solve(x, b []float64) error {
 	if err := checkLen(s.a.N, x, b); err != nil {
 		return err
 	}
-	return s.lagged(1, func(tol float64, maxIter int) (float64, error) { return s.bicg(x, b, tol, maxIter) })
+	return s.lagged(func(tol float64, maxIter int) (float64, error) { return s.bicg(x, b, tol, maxIter) })
 }
 
 // bicg is the BiCGStab iteration, at most maxIter steps, on blocks of rows
